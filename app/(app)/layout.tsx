@@ -1,0 +1,46 @@
+import { LogOut } from "lucide-react";
+import { Rail } from "@/components/shell/rail";
+import { KitchenSwitcher } from "@/components/shell/kitchen-switcher";
+import { sectionsFor } from "@/components/shell/sections";
+import { Wordmark } from "@/components/brand/logo-mark";
+import { requireUser } from "@/lib/auth/session";
+import { getCurrentKitchen } from "@/lib/data/current-kitchen";
+import { ROLE_LABELS } from "@/lib/mail/templates";
+import Link from "next/link";
+import { signOutAction } from "./actions";
+
+export const dynamic = "force-dynamic";
+
+// Display only: pages and endpoints make their own access decisions.
+export default async function AppLayout({ children }: { children: React.ReactNode }) {
+  const user = await requireUser();
+  const kitchen = await getCurrentKitchen(user);
+  const sections = sectionsFor(user).map(({ key, href, label }) => ({ key, href, label }));
+  return (
+    <div className="flex min-h-screen">
+      <Rail sections={sections} />
+      <div className="flex min-w-0 flex-1 flex-col">
+        <header className="flex min-h-[64px] flex-wrap items-center justify-between gap-3 border-b border-salt-edge bg-white px-6 py-2">
+          <div className="flex items-center gap-4">
+            <Wordmark className="text-lg" />
+            <span className="text-sm text-brine">{user.companyName}</span>
+          </div>
+          <div className="flex items-center gap-4">
+            <KitchenSwitcher kitchens={user.kitchens} currentId={kitchen?.id ?? null} />
+            <Link href="/account" className="flex min-h-touch flex-col justify-center text-right text-sm leading-tight hover:underline">
+              <span className="font-semibold">{user.name}</span>
+              <span className="text-brine">{ROLE_LABELS[user.role]}</span>
+            </Link>
+            <form action={signOutAction}>
+              <button type="submit" className="btn-quiet px-3" aria-label="Sign out">
+                <LogOut aria-hidden className="h-5 w-5" />
+                <span className="hidden lg:inline">Sign out</span>
+              </button>
+            </form>
+          </div>
+        </header>
+        <main id="main" className="flex-1 px-6 py-6">{children}</main>
+      </div>
+    </div>
+  );
+}

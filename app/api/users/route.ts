@@ -1,0 +1,4 @@
+import { listUsers } from "@/lib/data/users";
+import { route } from "@/lib/http/route";
+
+export const GET = route({}, async ({ user }) => ({ users: await listUsers(user) }));

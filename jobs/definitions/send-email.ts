@@ -1,0 +1,55 @@
+// Sends one outbox e-mail. Idempotent: the row is locked while it is sent and marked sent in the
+// same transaction, so a second run (a retry, a duplicate job, a second worker) does nothing.
+import type { Knex } from "knex";
+import type { Transporter } from "nodemailer";
+import { UnrecoverableError } from "bullmq";
+import { z } from "zod";
+import type { OutboxEmailRow } from "../../db/types";
+
+export const sendEmailPayload = z.object({ outboxId: z.uuid() });
+export const COMPANY_HEADER = "X-HankLot-Company";
+
+export async function sendOutboxEmail(
+  knex: Knex,
+  transport: Transporter,
+  from: string,
+  payload: unknown,
+): Promise<"sent" | "already-done"> {
+  const parsed = sendEmailPayload.safeParse(payload);
+  if (!parsed.success) throw new UnrecoverableError(`bad payload: ${parsed.error.message}`);
+  return knex.transaction(async (trx) => {
+    const row: OutboxEmailRow | undefined = await trx("outbox_emails").where({ id: parsed.data.outboxId }).forUpdate().skipLocked().first();
+    if (!row || row.status !== "pending") return "already-done";
+    try {
+      await transport.sendMail({
+        from,
+        to: row.to_addresses,
+        subject: row.subject,
+        text: row.text_body,
+        ...(row.html_body ? { html: row.html_body } : {}),
+        headers: row.company_id ? { [COMPANY_HEADER]: row.company_id } : {},
+      });
+    } catch (e) {
+      // recorded outside this transaction, which rolls back with the error
+      await knex("outbox_emails").where({ id: row.id }).update({ attempts: knex.raw("attempts + 1"), last_error: String((e as Error).message).slice(0, 500) });
+      throw e;
+    }
+    await trx("outbox_emails").where({ id: row.id }).update({ status: "sent", sent_at: trx.fn.now(), attempts: row.attempts + 1, last_error: null });
+    return "sent";
+  });
+}
+
+/** After the last retry: the row is marked failed so the sweep stops offering it. */
+export async function markOutboxEmailFailed(knex: Knex, outboxId: string, error: string): Promise<void> {
+  await knex("outbox_emails").where({ id: outboxId, status: "pending" }).update({ status: "failed", last_error: error.slice(0, 500) });
+}
+
+/** Ids of pending e-mails older than `olderThanMs`, for the worker's sweep. */
+export async function pendingOutboxIds(knex: Knex, olderThanMs: number, limit = 500): Promise<string[]> {
+  return knex("outbox_emails")
+    .where({ status: "pending" })
+    .where("created_at", "<", knex.raw(`now() - (? * interval '1 millisecond')`, [olderThanMs]))
+    .orderBy("created_at")
+    .limit(limit)
+    .pluck("id");
+}

@@ -1,0 +1,31 @@
+// Queue names and producers. The web app enqueues through here; jobs/worker.ts consumes.
+// env: REDIS_URL
+import { Queue } from "bullmq";
+import { Redis } from "ioredis";
+import { env } from "../lib/env";
+
+export const MAIL_QUEUE = "mail";
+export const HOUSEKEEPING_QUEUE = "housekeeping";
+
+export const MAIL_JOB_OPTIONS = {
+  attempts: 6,
+  backoff: { type: "exponential", delay: 2000 },
+  removeOnComplete: { age: 24 * 3600, count: 1000 },
+  removeOnFail: { age: 7 * 24 * 3600 },
+} as const;
+
+const globalForQueues = globalThis as unknown as { __hlMailQueue?: Queue };
+
+/** Producer side: fails fast while Redis is down (the outbox keeps the mail; the worker sweeps it). */
+export function mailQueue(): Queue {
+  globalForQueues.__hlMailQueue ??= new Queue(MAIL_QUEUE, {
+    connection: new Redis(env().REDIS_URL, { enableOfflineQueue: false, maxRetriesPerRequest: 1, connectTimeout: 1000 }).on("error", () => {}),
+  });
+  return globalForQueues.__hlMailQueue;
+}
+
+/** Enqueues outbox e-mails by id. The outbox id is the job id, so enqueuing twice is harmless. */
+export async function enqueueOutboxEmails(queue: Queue, ids: readonly string[]): Promise<void> {
+  if (ids.length === 0) return;
+  await queue.addBulk(ids.map((outboxId) => ({ name: "send-email", data: { outboxId }, opts: { ...MAIL_JOB_OPTIONS, jobId: outboxId } })));
+}

@@ -1,0 +1,67 @@
+// The job worker: sends outbox e-mail and runs housekeeping. Closes gracefully on SIGTERM/SIGINT.
+// env: DATABASE_URL, REDIS_URL, SMTP_HOST, SMTP_PORT, MAIL_FROM, OUTBOX_SWEEP_MS (10000)
+import { Queue, Worker, type Job } from "bullmq";
+import { Redis } from "ioredis";
+import nodemailer from "nodemailer";
+import { closeDb, db } from "../db/client";
+import { env } from "../lib/env";
+import { runHousekeeping } from "./definitions/housekeeping";
+import { markOutboxEmailFailed, pendingOutboxIds, sendOutboxEmail } from "./definitions/send-email";
+import { enqueueOutboxEmails, HOUSEKEEPING_QUEUE, MAIL_QUEUE } from "./queues";
+
+const config = env();
+const sweepMs = Number(process.env.OUTBOX_SWEEP_MS ?? 10_000);
+const workerConnection = () => new Redis(config.REDIS_URL, { maxRetriesPerRequest: null });
+const transport = nodemailer.createTransport({ host: config.SMTP_HOST, port: config.SMTP_PORT, secure: false, ignoreTLS: true });
+
+const mailWorker = new Worker(
+  MAIL_QUEUE,
+  async (job: Job) => sendOutboxEmail(db(), transport, config.MAIL_FROM, job.data),
+  { connection: workerConnection(), concurrency: 4 },
+);
+mailWorker.on("failed", (job, err) => {
+  if (!job) return;
+  console.warn(`[worker] mail ${job.id} failed (attempt ${job.attemptsMade}): ${err.message}`);
+  if (job.attemptsMade >= (job.opts.attempts ?? 1)) void markOutboxEmailFailed(db(), job.data.outboxId, err.message);
+});
+
+const housekeepingWorker = new Worker(
+  HOUSEKEEPING_QUEUE,
+  async () => runHousekeeping(db()),
+  { connection: workerConnection() },
+);
+
+const mailQueue = new Queue(MAIL_QUEUE, { connection: workerConnection() });
+const housekeepingQueue = new Queue(HOUSEKEEPING_QUEUE, { connection: workerConnection() });
+await housekeepingQueue.upsertJobScheduler("daily-housekeeping", { every: 24 * 3600 * 1000 }, { name: "housekeeping" });
+
+// The outbox sweep: e-mails written while Redis was down (or whose enqueue was lost) get queued.
+let sweeping = false;
+async function sweep() {
+  if (sweeping) return;
+  sweeping = true;
+  try {
+    await enqueueOutboxEmails(mailQueue, await pendingOutboxIds(db(), 2000));
+  } catch (e) {
+    console.warn("[worker] outbox sweep failed:", (e as Error).message);
+  } finally {
+    sweeping = false;
+  }
+}
+void sweep();
+const sweepTimer = setInterval(sweep, sweepMs);
+console.log(`[worker] running: queues ${MAIL_QUEUE}, ${HOUSEKEEPING_QUEUE}; SMTP ${config.SMTP_HOST}:${config.SMTP_PORT}`);
+
+let closing = false;
+async function shutdown(signal: string) {
+  if (closing) return;
+  closing = true;
+  console.log(`[worker] ${signal}: finishing current jobs`);
+  clearInterval(sweepTimer);
+  await Promise.allSettled([mailWorker.close(), housekeepingWorker.close(), mailQueue.close(), housekeepingQueue.close()]);
+  transport.close();
+  await closeDb();
+  process.exit(0);
+}
+process.on("SIGTERM", () => void shutdown("SIGTERM"));
+process.on("SIGINT", () => void shutdown("SIGINT"));

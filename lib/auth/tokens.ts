@@ -1,0 +1,11 @@
+// Single-use link tokens (invitations, password resets). Only the SHA-256 is stored.
+import { createHash, randomBytes } from "node:crypto";
+
+export function newLinkToken(): { token: string; hash: string } {
+  const token = randomBytes(32).toString("base64url");
+  return { token, hash: hashToken(token) };
+}
+
+export function hashToken(token: string): string {
+  return createHash("sha256").update(token).digest("hex");
+}

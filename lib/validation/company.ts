@@ -1,0 +1,52 @@
+import { z } from "zod";
+import { ROLES } from "../../db/types";
+import { email, role, timeZone, uuid } from "./common";
+
+export const companyUpdateInput = z.object({
+  name: z.string().trim().min(1, "Enter the company name.").max(120),
+  timeZone,
+  currency: z.string().trim().toUpperCase().regex(/^[A-Z]{3}$/, "Use a three-letter ISO 4217 code, e.g. EUR."),
+});
+
+export const kitchenCode = z
+  .string()
+  .trim()
+  .toUpperCase()
+  .regex(/^[A-Z0-9][A-Z0-9-]{0,11}$/, "Use 1 to 12 letters, digits or dashes, e.g. NORTH-1.");
+
+export const kitchenCreateInput = z.object({
+  code: kitchenCode,
+  name: z.string().trim().min(1, "Enter the kitchen's name.").max(120),
+  address: z.string().trim().max(500).default(""),
+  timeZone: timeZone.nullable().default(null),
+});
+export const kitchenUpdateInput = kitchenCreateInput.partial().extend({ archived: z.boolean().optional() });
+
+export const invitationCreateInput = z
+  .object({
+    email,
+    name: z.string().trim().min(1, "Enter the person's name.").max(120),
+    role,
+    kitchenIds: z.array(uuid).max(100).default([]),
+  })
+  .refine((v) => v.role !== "kitchen_lead" || v.kitchenIds.length > 0, {
+    path: ["kitchenIds"],
+    error: "A kitchen lead needs at least one kitchen.",
+  });
+
+export const userUpdateInput = z
+  .object({
+    name: z.string().trim().min(1).max(120),
+    role,
+    kitchenIds: z.array(uuid).max(100),
+    disabled: z.boolean(),
+  })
+  .partial();
+
+export const profileUpdateInput = z.object({
+  name: z.string().trim().min(1, "Enter your name.").max(120),
+  timeZone: timeZone.nullable(),
+  unitSystem: z.enum(["metric", "us"]),
+});
+
+export { ROLES };
