@@ -9,6 +9,8 @@ const securityHeaders = [
 const nextConfig = {
   // knex loads optional drivers dynamically; bundling it (or pg, bullmq, ioredis) breaks the build.
   serverExternalPackages: ["knex", "pg", "bullmq", "ioredis", "@node-rs/argon2", "smtp-server", "mailparser", "nodemailer"],
+  // a separate build folder lets a test build run beside a `npm start` build
+  distDir: process.env.NEXT_DIST_DIR || ".next",
   poweredByHeader: false,
   async headers() {
     return [{ source: "/:path*", headers: securityHeaders }];
