@@ -17,9 +17,9 @@ export async function sendOutboxEmail(
 ): Promise<"sent" | "already-done"> {
   const parsed = sendEmailPayload.safeParse(payload);
   if (!parsed.success) throw new UnrecoverableError(`bad payload: ${parsed.error.message}`);
-  return knex.transaction(async (trx) => {
+  const outcome = await knex.transaction(async (trx) => {
     const row: OutboxEmailRow | undefined = await trx("outbox_emails").where({ id: parsed.data.outboxId }).forUpdate().skipLocked().first();
-    if (!row || row.status !== "pending") return "already-done";
+    if (!row || row.status !== "pending") return "already-done" as const;
     try {
       await transport.sendMail({
         from,
@@ -30,13 +30,16 @@ export async function sendOutboxEmail(
         headers: row.company_id ? { [COMPANY_HEADER]: row.company_id } : {},
       });
     } catch (e) {
-      // recorded outside this transaction, which rolls back with the error
-      await knex("outbox_emails").where({ id: row.id }).update({ attempts: knex.raw("attempts + 1"), last_error: String((e as Error).message).slice(0, 500) });
-      throw e;
+      // the failed attempt is recorded and committed in this transaction (it holds the row lock, so
+      // another connection could not write the row until it ends), then rethrown for a retry
+      await trx("outbox_emails").where({ id: row.id }).update({ attempts: row.attempts + 1, last_error: String((e as Error).message).slice(0, 500) });
+      return { failed: e };
     }
     await trx("outbox_emails").where({ id: row.id }).update({ status: "sent", sent_at: trx.fn.now(), attempts: row.attempts + 1, last_error: null });
-    return "sent";
+    return "sent" as const;
   });
+  if (typeof outcome === "object") throw outcome.failed;
+  return outcome;
 }
 
 /** After the last retry: the row is marked failed so the sweep stops offering it. */

@@ -40,11 +40,13 @@ export function redisLimiter(client: Redis, fallback: FailureLimiter, max = SIGN
   const k = (key: string) => `hl:signin-failures:${key}`;
   return {
     async blockedFor(key) {
+      // failures counted in this process while Redis was unreachable still count once it is back
+      const local = await fallback.blockedFor(key);
       try {
         const [count, ttl] = await Promise.all([client.get(k(key)), client.pttl(k(key))]);
-        return Number(count ?? 0) >= max ? Math.max(ttl, 1) : 0;
+        return Math.max(local, Number(count ?? 0) >= max ? Math.max(ttl, 1) : 0);
       } catch {
-        return fallback.blockedFor(key);
+        return local;
       }
     },
     async recordFailure(key) {

@@ -54,7 +54,8 @@ export async function createKitchen(actor: CurrentUser, input: z.infer<typeof ki
 }
 
 export async function updateKitchen(actor: CurrentUser, id: string, input: z.infer<typeof kitchenUpdateInput>): Promise<Kitchen> {
-  if (!(await db()("kitchens").where({ company_id: actor.companyId, id }).first("id"))) throw notFound("Kitchen");
+  const current: KitchenRow | undefined = await db()("kitchens").where({ company_id: actor.companyId, id }).first();
+  if (!current) throw notFound("Kitchen");
   assertCan(actor, "kitchens.manage");
   const patch: Partial<KitchenRow> = {};
   if (input.code !== undefined) patch.code = input.code;
@@ -62,6 +63,7 @@ export async function updateKitchen(actor: CurrentUser, id: string, input: z.inf
   if (input.address !== undefined) patch.address = input.address;
   if (input.timeZone !== undefined) patch.time_zone = input.timeZone;
   if (input.archived !== undefined) patch.archived_at = input.archived ? new Date() : null;
+  if (Object.keys(patch).length === 0) return toKitchen(current); // knex refuses an empty UPDATE
   try {
     const [row] = await db()("kitchens").where({ company_id: actor.companyId, id }).update(patch).returning<KitchenRow[]>("*");
     return toKitchen(row!);

@@ -14,13 +14,20 @@ export const kitchenCode = z
   .toUpperCase()
   .regex(/^[A-Z0-9][A-Z0-9-]{0,11}$/, "Use 1 to 12 letters, digits or dashes, e.g. NORTH-1.");
 
-export const kitchenCreateInput = z.object({
+const kitchenFields = {
   code: kitchenCode,
   name: z.string().trim().min(1, "Enter the kitchen's name.").max(120),
-  address: z.string().trim().max(500).default(""),
-  timeZone: timeZone.nullable().default(null),
+  address: z.string().trim().max(500),
+  timeZone: timeZone.nullable(),
+};
+export const kitchenCreateInput = z.object({
+  ...kitchenFields,
+  address: kitchenFields.address.default(""),
+  timeZone: kitchenFields.timeZone.default(null),
 });
-export const kitchenUpdateInput = kitchenCreateInput.partial().extend({ archived: z.boolean().optional() });
+// No defaults here: zod 4 still applies .default() under .partial(), which would blank the address
+// and time zone of every PATCH that leaves them out.
+export const kitchenUpdateInput = z.object(kitchenFields).partial().extend({ archived: z.boolean().optional() });
 
 export const invitationCreateInput = z
   .object({
