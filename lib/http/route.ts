@@ -8,7 +8,7 @@ import type { CurrentUser } from "../auth/current-user";
 import { isHttps, serializeCookie, sessionCookie, SESSION_COOKIE, validateSession } from "../auth/session";
 import { claimIdempotencyKey, releaseIdempotencyKey, requestHash, storeIdempotentResponse } from "../data/idempotency";
 import {
-  AppError, badRequest, errorBody, fieldErrors, forbidden, payloadTooLarge, unauthenticated, unsupportedMediaType, validation,
+  AppError, badRequest, errorBody, fieldErrors, forbidden, notFound, payloadTooLarge, unauthenticated, unsupportedMediaType, validation,
 } from "./errors";
 
 export const DEFAULT_MAX_BODY_BYTES = 256 * 1024;
@@ -161,4 +161,11 @@ export function route<S extends z.ZodType | undefined = undefined, A extends boo
       return errorResponse(e, req);
     }
   };
+}
+
+/** The [id] segment as a uuid; anything else cannot name a record, so it is 404 like a missing one. */
+export function idParam(params: Params, what: string): string {
+  const id = params.id;
+  if (typeof id !== "string" || !/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id)) throw notFound(what);
+  return id;
 }
