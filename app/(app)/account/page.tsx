@@ -1,0 +1,34 @@
+import type { Metadata } from "next";
+import { PageHeader } from "@/components/shell/page-header";
+import { timeZoneOptions } from "@/components/ui/time-zones";
+import { requireUser } from "@/lib/auth/session";
+import { getCompany } from "@/lib/data/companies";
+import { ROLE_LABELS } from "@/lib/mail/templates";
+import { ProfileForm } from "./_components/profile-form";
+
+export const metadata: Metadata = { title: "Your account" };
+export const dynamic = "force-dynamic";
+
+export default async function AccountPage() {
+  // every signed-in person may edit their own details
+  const user = await requireUser();
+  const company = await getCompany(user);
+  // CurrentUser carries the effective zone only: one equal to the company's reads as "the company's".
+  const ownTimeZone = user.timeZone === company.timeZone ? null : user.timeZone;
+  return (
+    <>
+      <PageHeader title="Your account" description="How your name appears, and how times and quantities are shown to you." />
+      <dl className="mb-6 grid max-w-xl grid-cols-[auto_1fr] gap-x-6 gap-y-1">
+        <dt className="text-brine">E-mail</dt>
+        <dd className="break-all font-semibold">{user.email}</dd>
+        <dt className="text-brine">Role</dt>
+        <dd className="font-semibold">{ROLE_LABELS[user.role]} at {user.companyName}</dd>
+      </dl>
+      <ProfileForm
+        profile={{ name: user.name, timeZone: ownTimeZone, unitSystem: user.unitSystem }}
+        zones={timeZoneOptions(company.timeZone, user.timeZone)}
+        companyTimeZone={company.timeZone}
+      />
+    </>
+  );
+}

@@ -1,0 +1,26 @@
+"use server";
+
+import { revalidatePath } from "next/cache";
+import { appErrorState, zodErrors, type FormState } from "@/components/ui/form-state";
+import { requireUser } from "@/lib/auth/session";
+import { updateCompany } from "@/lib/data/companies";
+import { companyUpdateInput } from "@/lib/validation/company";
+
+export type CompanyFormState = FormState<{ name?: string; timeZone?: string; currency?: string }>;
+
+export async function updateCompanyAction(_prev: CompanyFormState, form: FormData): Promise<CompanyFormState> {
+  const user = await requireUser();
+  const values = { name: String(form.get("name") ?? ""), timeZone: String(form.get("timeZone") ?? ""), currency: String(form.get("currency") ?? "") };
+  const parsed = companyUpdateInput.safeParse(values);
+  if (!parsed.success) return { fieldErrors: zodErrors(parsed.error), values };
+  try {
+    await updateCompany(user, parsed.data);
+  } catch (e) {
+    const state = appErrorState(e);
+    if (!state) throw e;
+    return { ...state, values };
+  }
+  // the company name is in every page's header
+  revalidatePath("/", "layout");
+  return { ok: true, message: "Company details saved." };
+}

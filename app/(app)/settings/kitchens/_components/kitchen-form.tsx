@@ -1,0 +1,78 @@
+"use client";
+
+import { startTransition, useActionState, useEffect } from "react";
+import { describedBy, FieldError, FieldHint, FormMessage, TextField } from "@/components/ui/field";
+import { SideSheetFooter } from "@/components/ui/side-sheet";
+import { TimeZoneSelect } from "@/components/ui/time-zone-select";
+import type { Kitchen } from "@/lib/data/kitchens";
+import { saveKitchenAction, type KitchenFormState } from "../actions";
+
+/** Add (no kitchen given) or edit a kitchen. */
+export function KitchenForm({ kitchen, zones, companyTimeZone, onSaved, onCancel }: {
+  kitchen?: Kitchen;
+  zones: string[];
+  companyTimeZone: string;
+  onSaved: (message: string) => void;
+  onCancel: () => void;
+}) {
+  const [state, action, pending] = useActionState<KitchenFormState, FormData>(saveKitchenAction, {});
+  useEffect(() => {
+    if (state.ok) onSaved(state.message ?? "Saved.");
+  }, [state, onSaved]);
+  const e = state.fieldErrors;
+
+  return (
+    <form
+      noValidate
+      className="flex flex-col gap-5"
+      onSubmit={(ev) => {
+        ev.preventDefault();
+        const data = new FormData(ev.currentTarget);
+        startTransition(() => action(data));
+      }}
+    >
+      {kitchen ? <input type="hidden" name="id" value={kitchen.id} /> : null}
+      <FormMessage tone="error">{state.message}</FormMessage>
+      <TextField
+        name="code" id="kitchen-code" label="Code" required defaultValue={kitchen?.code} errors={e?.code} initialFocus
+        maxLength={12} autoCapitalize="characters" autoComplete="off" spellCheck={false} className="max-w-[14rem]"
+        hint="Short and unique, e.g. NORTH-1. Shown on labels and in the kitchen switcher."
+      />
+      <TextField name="name" id="kitchen-name" label="Name" required defaultValue={kitchen?.name} errors={e?.name} autoComplete="off" />
+      <div>
+        <label htmlFor="kitchen-address" className="field-label">Address <span className="font-normal text-brine">(optional)</span></label>
+        <textarea
+          id="kitchen-address" name="address" rows={3} defaultValue={kitchen?.address}
+          className="field-input py-2" {...describedBy("kitchen-address", e?.address)}
+        />
+        <FieldError id="kitchen-address" errors={e?.address} />
+      </div>
+      <TimeZoneSelect
+        name="timeZone" id="kitchen-time-zone" label="Time zone" zones={zones} defaultValue={kitchen?.timeZone}
+        emptyLabel={`The company's (${companyTimeZone.replaceAll("_", " ")})`} errors={e?.timeZone}
+        hint="Only for a kitchen in another time zone than the company."
+      />
+      {kitchen ? (
+        <fieldset>
+          <legend className="field-label">Status</legend>
+          <label className="flex min-h-touch cursor-pointer items-start gap-3 rounded-md border border-brine-line px-3 py-2.5 hover:bg-salt">
+            <input type="checkbox" name="archived" defaultChecked={kitchen.archived} className="mt-0.5 h-5 w-5 accent-paprika" {...describedBy("kitchen-archived", e?.archived, true)} />
+            <span>
+              <span className="block font-semibold">Archived</span>
+              <FieldHint id="kitchen-archived">
+                {kitchen.archived ? "Untick to open this kitchen again." : "Leaves the kitchen switcher and new work. Its records stay."}
+              </FieldHint>
+            </span>
+          </label>
+          <FieldError id="kitchen-archived" errors={e?.archived} />
+        </fieldset>
+      ) : null}
+      <SideSheetFooter>
+        <button type="button" className="btn-quiet" onClick={onCancel}>Cancel</button>
+        <button type="submit" className="btn-primary" disabled={pending}>
+          {pending ? "Saving…" : kitchen ? "Save changes" : "Add kitchen"}
+        </button>
+      </SideSheetFooter>
+    </form>
+  );
+}

@@ -1,0 +1,16 @@
+"use server";
+
+import { requestPasswordReset } from "@/lib/data/password-resets";
+import { passwordResetRequestInput } from "@/lib/validation/auth";
+import { zodErrors, type FormState } from "@/components/ui/form-state";
+
+export type ForgotPasswordState = FormState<{ email?: string }> & { sent?: boolean };
+
+/** Same answer for every well-formed address: whether it has an account is never revealed. */
+export async function forgotPasswordAction(_prev: ForgotPasswordState, form: FormData): Promise<ForgotPasswordState> {
+  const email = String(form.get("email") ?? "");
+  const parsed = passwordResetRequestInput.safeParse({ email });
+  if (!parsed.success) return { fieldErrors: zodErrors(parsed.error), values: { email } };
+  await requestPasswordReset(parsed.data.email);
+  return { sent: true, values: { email: parsed.data.email } };
+}
