@@ -16,6 +16,8 @@ export interface CurrentUser extends Actor {
   currency: string;
   /** The user's own time zone, else the company's. */
   timeZone: string;
+  /** The time zone the user chose, or null to follow the company's. */
+  ownTimeZone: string | null;
   unitSystem: "metric" | "us";
   /** Kitchens the user acts in: a kitchen lead's assigned kitchens, everyone else's every open kitchen. */
   kitchens: KitchenRef[];

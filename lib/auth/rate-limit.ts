@@ -1,10 +1,14 @@
-// Sign-in failures per e-mail: 10 in a 15-minute window, then 429 until the window ends.
+// Sign-in failures per e-mail: 10 in a 15-minute window, then 429 until the window ends. The same
+// counters limit password-reset requests.
 // Counted in Redis (shared by every web process); while Redis is unreachable, each process keeps its
 // own count so the limit still holds per process.
 import type { Redis } from "ioredis";
 
 export const SIGN_IN_MAX_FAILURES = 10;
 export const SIGN_IN_WINDOW_MS = 15 * 60 * 1000;
+// password-reset requests per e-mail, known or not (so the limit reveals nothing): 5 an hour
+export const RESET_REQUEST_MAX = 5;
+export const RESET_REQUEST_WINDOW_MS = 60 * 60 * 1000;
 
 export interface FailureLimiter {
   /** Milliseconds until the key may try again, or 0 when it is not blocked. */
@@ -36,8 +40,14 @@ export function memoryLimiter(max = SIGN_IN_MAX_FAILURES, windowMs = SIGN_IN_WIN
   };
 }
 
-export function redisLimiter(client: Redis, fallback: FailureLimiter, max = SIGN_IN_MAX_FAILURES, windowMs = SIGN_IN_WINDOW_MS): FailureLimiter {
-  const k = (key: string) => `hl:signin-failures:${key}`;
+export function redisLimiter(
+  client: Redis,
+  fallback: FailureLimiter,
+  max = SIGN_IN_MAX_FAILURES,
+  windowMs = SIGN_IN_WINDOW_MS,
+  name = "signin-failures",
+): FailureLimiter {
+  const k = (key: string) => `hl:${name}:${key}`;
   return {
     async blockedFor(key) {
       // failures counted in this process while Redis was unreachable still count once it is back

@@ -3,6 +3,7 @@ import { addHours } from "date-fns";
 import type { z } from "zod";
 import { db } from "../../db/client";
 import type { PasswordResetRow } from "../../db/types";
+import { assertNotLimited, resetRequestLimiter } from "../auth/limiters";
 import { hashPassword } from "../auth/password";
 import { hashToken, newLinkToken } from "../auth/tokens";
 import { env } from "../env";
@@ -15,6 +16,8 @@ export const RESET_HOURS = 1;
 
 /** Same answer whether or not the e-mail is known; mail goes only to an active account. */
 export async function requestPasswordReset(email: string): Promise<void> {
+  await assertNotLimited(resetRequestLimiter(), email.toLowerCase(), "reset requests");
+  await resetRequestLimiter().recordFailure(email.toLowerCase());
   const { token, hash } = newLinkToken();
   const expiresAt = addHours(new Date(), RESET_HOURS);
   const outboxId = await db().transaction(async (trx) => {
@@ -33,14 +36,23 @@ export async function requestPasswordReset(email: string): Promise<void> {
   if (outboxId) dispatchOutbox([outboxId]);
 }
 
+function assertUsable(r: PasswordResetRow | undefined): asserts r is PasswordResetRow {
+  if (!r) throw notFound("Reset link");
+  if (r.used_at) throw new AppError(409, "RESET_USED", "This reset link has already been used. Ask for a new one.");
+  if (r.expires_at <= new Date()) throw new AppError(409, "RESET_EXPIRED", "This reset link has expired. Ask for a new one.");
+}
+
+/** Whether a link still works, so the page can say so before the person types a new password. */
+export async function checkPasswordResetToken(token: string): Promise<void> {
+  assertUsable(await db()("password_resets").where({ token_hash: hashToken(token) }).first());
+}
+
 /** Sets the new password, spends the link and signs the account out everywhere, in one transaction. */
 export async function resetPassword(input: z.infer<typeof passwordResetConfirmInput>): Promise<{ userId: string }> {
   const passwordHash = await hashPassword(input.password);
   return db().transaction(async (trx) => {
     const r: PasswordResetRow | undefined = await trx("password_resets").where({ token_hash: hashToken(input.token) }).forUpdate().first();
-    if (!r) throw notFound("Reset link");
-    if (r.used_at) throw new AppError(409, "RESET_USED", "This reset link has already been used. Ask for a new one.");
-    if (r.expires_at <= new Date()) throw new AppError(409, "RESET_EXPIRED", "This reset link has expired. Ask for a new one.");
+    assertUsable(r);
     await trx("app_users").where({ id: r.user_id }).update({ password_hash: passwordHash });
     await trx("password_resets").where({ user_id: r.user_id }).whereNull("used_at").update({ used_at: trx.fn.now() });
     await trx("user_sessions").where({ user_id: r.user_id }).delete();

@@ -49,6 +49,7 @@ export async function loadCurrentUser(userId: string): Promise<CurrentUser | und
     companyName: row.company_name,
     currency: row.currency,
     timeZone: row.time_zone ?? row.company_time_zone,
+    ownTimeZone: row.time_zone,
     unitSystem: row.unit_system,
     kitchens: kitchens.map(kitchenRef),
   };

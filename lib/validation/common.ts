@@ -25,7 +25,7 @@ export function isTimeZone(tz: string): boolean {
   }
 }
 
-export const role = z.enum(ROLES, { error: `Choose one of: ${ROLES.join(", ")}.` });
+export const role = z.enum(ROLES, { error: "Choose a role: admin, manager, buyer, kitchen lead or accountant." });
 
 export const uuid = z.uuid({ error: "Not a valid id." });
 

@@ -43,7 +43,7 @@ export const invitationCreateInput = z
 
 export const userUpdateInput = z
   .object({
-    name: z.string().trim().min(1).max(120),
+    name: z.string().trim().min(1, "Enter the person's name.").max(120, "At most 120 characters."),
     role,
     kitchenIds: z.array(uuid).max(100),
     disabled: z.boolean(),

@@ -5,6 +5,8 @@ import { POST as signInRoute } from "../../app/api/auth/sign-in/route";
 import { GET as meRoute } from "../../app/api/me/route";
 import { db } from "../../db/client";
 import { newLinkToken } from "../../lib/auth/tokens";
+import { RESET_REQUEST_MAX } from "../../lib/auth/rate-limit";
+import { checkPasswordResetToken } from "../../lib/data/password-resets";
 import { formatDateTime } from "../../lib/mail/templates";
 import { createCompany, createUser, TEST_PASSWORD, uniqueEmail, type TestCompany } from "../support/factory";
 import { sessionCookieFor } from "../support/sessions";
@@ -29,6 +31,29 @@ async function insertReset(userId: string, expiresAt: Date) {
 }
 
 describe("password reset", () => {
+  it("limits requests per e-mail (known or not, so the limit reveals nothing) to 5 an hour", async () => {
+    expect(RESET_REQUEST_MAX).toBe(5);
+    const user = await createUser(co.company.id, "accountant");
+    for (const email of [user.email, uniqueEmail("nobody")]) {
+      for (let i = 0; i < RESET_REQUEST_MAX; i++) expect((await requestReset(email)).status).toBe(202);
+      const blocked = await requestReset(email);
+      expect(blocked.status).toBe(429);
+      expect(blocked.body.error.code).toBe("RATE_LIMITED");
+    }
+    expect(await outboxTo(user.email)).toHaveLength(RESET_REQUEST_MAX);
+  });
+
+  it("tells whether a link still works before a new password is typed", async () => {
+    const user = await createUser(co.company.id, "buyer");
+    const live = await insertReset(user.id, new Date(Date.now() + 3600_000));
+    const expired = await insertReset(user.id, new Date(Date.now() - 1000));
+    await expect(checkPasswordResetToken(live)).resolves.toBeUndefined();
+    await expect(checkPasswordResetToken(expired)).rejects.toMatchObject({ status: 409, code: "RESET_EXPIRED" });
+    await expect(checkPasswordResetToken(newLinkToken().token)).rejects.toMatchObject({ status: 404 });
+    expect((await confirm(live, "another-long-password")).status).toBe(200);
+    await expect(checkPasswordResetToken(live)).rejects.toMatchObject({ status: 409, code: "RESET_USED" });
+  });
+
   it("answers a known and an unknown e-mail with the same 202, and mails only the known one", async () => {
     const user = await createUser(co.company.id, "buyer");
     const unknown = uniqueEmail("nobody");

@@ -13,8 +13,6 @@ export default async function AccountPage() {
   // every signed-in person may edit their own details
   const user = await requireUser();
   const company = await getCompany(user);
-  // CurrentUser carries the effective zone only: one equal to the company's reads as "the company's".
-  const ownTimeZone = user.timeZone === company.timeZone ? null : user.timeZone;
   return (
     <>
       <PageHeader title="Your account" description="How your name appears, and how times and quantities are shown to you." />
@@ -25,7 +23,7 @@ export default async function AccountPage() {
         <dd className="font-semibold">{ROLE_LABELS[user.role]} at {user.companyName}</dd>
       </dl>
       <ProfileForm
-        profile={{ name: user.name, timeZone: ownTimeZone, unitSystem: user.unitSystem }}
+        profile={{ name: user.name, timeZone: user.ownTimeZone, unitSystem: user.unitSystem }}
         zones={timeZoneOptions(company.timeZone, user.timeZone)}
         companyTimeZone={company.timeZone}
       />

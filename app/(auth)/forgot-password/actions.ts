@@ -1,6 +1,7 @@
 "use server";
 
 import { requestPasswordReset } from "@/lib/data/password-resets";
+import { AppError } from "@/lib/http/errors";
 import { passwordResetRequestInput } from "@/lib/validation/auth";
 import { zodErrors, type FormState } from "@/components/ui/form-state";
 
@@ -11,6 +12,11 @@ export async function forgotPasswordAction(_prev: ForgotPasswordState, form: For
   const email = String(form.get("email") ?? "");
   const parsed = passwordResetRequestInput.safeParse({ email });
   if (!parsed.success) return { fieldErrors: zodErrors(parsed.error), values: { email } };
-  await requestPasswordReset(parsed.data.email);
+  try {
+    await requestPasswordReset(parsed.data.email);
+  } catch (e) {
+    if (e instanceof AppError && e.status === 429) return { message: e.message, values: { email } };
+    throw e;
+  }
   return { sent: true, values: { email: parsed.data.email } };
 }
