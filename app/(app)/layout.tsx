@@ -5,7 +5,7 @@ import { sectionsFor } from "@/components/shell/sections";
 import { Wordmark } from "@/components/brand/logo-mark";
 import { requireUser } from "@/lib/auth/session";
 import { getCurrentKitchen } from "@/lib/data/current-kitchen";
-import { ROLE_LABELS } from "@/lib/mail/templates";
+import { ROLE_LABELS } from "@/lib/auth/roles";
 import Link from "next/link";
 import { signOutAction } from "./actions";
 

@@ -61,9 +61,11 @@ export async function createInvitation(actor: CurrentUser, input: z.infer<typeof
         kitchen_ids: input.kitchenIds, token_hash: hash, invited_by: actor.id, expires_at: expiresAt,
       })
       .returning<InvitationRow[]>("*");
+    // the invitee has no time zone of their own yet: the company's is the best guess
+    const { time_zone: companyTimeZone } = await trx("companies").where({ id: actor.companyId }).first("time_zone");
     const mail = invitationEmail({
       name: input.name, companyName: actor.companyName, inviterName: actor.name, role: input.role,
-      link: `${env().APP_URL}/invitation/${token}`, expiresAt, timeZone: actor.timeZone,
+      link: `${env().APP_URL}/invitation/${token}`, expiresAt, timeZone: companyTimeZone,
     });
     const outboxId = await addToOutbox(trx, { companyId: actor.companyId, to: [input.email], ...mail });
     return { row: row!, outboxId };

@@ -1,13 +1,6 @@
 // E-mail texts. Pure: the caller supplies every value, dates are shown in the reader's time zone.
 import type { Role } from "../../db/types";
-
-export const ROLE_LABELS: Record<Role, string> = {
-  admin: "Admin",
-  manager: "Manager",
-  buyer: "Buyer",
-  kitchen_lead: "Kitchen lead",
-  accountant: "Accountant",
-};
+import { ROLE_LABELS } from "../auth/roles";
 
 export function formatDateTime(d: Date, timeZone: string): string {
   return new Intl.DateTimeFormat("en-GB", {

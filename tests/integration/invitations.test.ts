@@ -6,6 +6,7 @@ import { GET as meRoute } from "../../app/api/me/route";
 import { db } from "../../db/client";
 import type { Role } from "../../db/types";
 import { newLinkToken } from "../../lib/auth/tokens";
+import { formatDateTime } from "../../lib/mail/templates";
 import { createCompany, tag, uniqueEmail, type TestCompany } from "../support/factory";
 import { sessionCookieFor } from "../support/sessions";
 import { baseUrl, call, cookieAttributes, cookieFrom } from "../support/http";
@@ -15,6 +16,8 @@ let co: TestCompany;
 let adminCookie: string;
 beforeAll(async () => {
   co = await createCompany({ kitchens: 2 });
+  // the inviting admin lives elsewhere than the company: the invitation must not use the admin's zone
+  await db()("app_users").where({ id: co.users.admin.id }).update({ time_zone: "Asia/Tokyo" });
   adminCookie = await sessionCookieFor(co.users.admin.id);
 });
 
@@ -51,6 +54,9 @@ describe("inviting and accepting", () => {
     expect(mail.companyId).toBe(co.company.id);
     const link = extractLink(mail.text, "/invitation/");
     expect(link.startsWith(`${baseUrl()}/invitation/`)).toBe(true);
+    // the invitee has no time zone yet: the expiry is shown in the company's
+    const row = await db()("invitations").where({ id: res.body.id }).first();
+    expect(mail.text).toContain(formatDateTime(row.expires_at, co.company.timeZone));
 
     const accepted = await accept({ token: tokenOf(link), password: "a-long-new-password" });
     expect(accepted.status).toBe(201);

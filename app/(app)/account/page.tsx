@@ -3,7 +3,7 @@ import { PageHeader } from "@/components/shell/page-header";
 import { timeZoneOptions } from "@/components/ui/time-zones";
 import { requireUser } from "@/lib/auth/session";
 import { getCompany } from "@/lib/data/companies";
-import { ROLE_LABELS } from "@/lib/mail/templates";
+import { ROLE_LABELS } from "@/lib/auth/roles";
 import { ProfileForm } from "./_components/profile-form";
 
 export const metadata: Metadata = { title: "Your account" };

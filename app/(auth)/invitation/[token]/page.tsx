@@ -3,7 +3,7 @@ import Link from "next/link";
 import { Ban, Clock, Link2Off, UserCheck, type LucideIcon } from "lucide-react";
 import { getInvitationByToken } from "@/lib/data/invitations";
 import { AppError } from "@/lib/http/errors";
-import { ROLE_LABELS } from "@/lib/mail/templates";
+import { ROLE_LABELS } from "@/lib/auth/roles";
 import { AcceptForm } from "./accept-form";
 
 export const metadata: Metadata = { title: "Invitation", robots: { index: false } };

@@ -2,7 +2,7 @@ import { Ban, CalendarX, CheckCircle2, Clock } from "lucide-react";
 import { Badge } from "@/components/ui/badge";
 import { DataTable, RowHeader, TBody, Td, Th, THead } from "@/components/ui/data-table";
 import type { InvitationSummary } from "@/lib/data/invitations";
-import { ROLE_LABELS } from "@/lib/mail/templates";
+import { ROLE_LABELS } from "@/lib/auth/roles";
 import type { KitchenOption } from "./kitchen-choices";
 import { WithdrawInvitation } from "./withdraw-invitation";
 

@@ -2,8 +2,7 @@
 import type { Role } from "@/db/types";
 import { ROLES } from "@/lib/validation/company";
 import { describedBy, FieldError, FieldHint } from "@/components/ui/field";
-import { ROLE_LABELS } from "@/lib/mail/templates";
-import { ROLE_HINTS } from "./roles";
+import { ROLE_HINTS, ROLE_LABELS } from "@/lib/auth/roles";
 
 export function RoleSelect({ id, value, onChange, errors, disabled, placeholder }: {
   id: string;

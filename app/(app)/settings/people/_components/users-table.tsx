@@ -7,7 +7,7 @@ import { DataTable, RowHeader, TBody, Td, Th, THead } from "@/components/ui/data
 import { useNotice } from "@/components/ui/notice";
 import { SideSheet } from "@/components/ui/side-sheet";
 import type { UserSummary } from "@/lib/data/users";
-import { ROLE_LABELS } from "@/lib/mail/templates";
+import { ROLE_LABELS } from "@/lib/auth/roles";
 import type { KitchenOption } from "./kitchen-choices";
 import { UserEditForm } from "./user-edit-form";
 

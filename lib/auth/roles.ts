@@ -1,6 +1,15 @@
-import type { Role } from "@/db/types";
+// Role names and one-line descriptions as people read them. Client-safe.
+import type { Role } from "../../db/types";
 
-// What each role may do, in a line (mirrors the matrix in lib/auth/permissions.ts).
+export const ROLE_LABELS: Record<Role, string> = {
+  admin: "Admin",
+  manager: "Manager",
+  buyer: "Buyer",
+  kitchen_lead: "Kitchen lead",
+  accountant: "Accountant",
+};
+
+/** What each role may do, in a line (a summary of the matrix in lib/auth/permissions.ts). */
 export const ROLE_HINTS: Record<Role, string> = {
   admin: "Everything, including people, kitchens and company settings.",
   manager: "Stock, planning, buying and reports in every kitchen.",
