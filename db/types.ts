@@ -89,3 +89,96 @@ export interface IdempotencyKeyRow {
   response_body: unknown;
   created_at: Date;
 }
+
+export const ITEM_CATEGORIES = ["casing", "cure", "spice", "ingredient"] as const;
+export type ItemCategory = (typeof ITEM_CATEGORIES)[number];
+export const STOCK_UNITS = ["g", "m", "ml", "pc"] as const;
+export type StockUnit = (typeof STOCK_UNITS)[number];
+export const CASING_KINDS = ["natural_hog", "natural_sheep", "natural_beef", "collagen", "fibrous", "cellulose"] as const;
+export const PUT_UPS = ["hank", "beef_set", "tubed_strand", "stick", "box"] as const;
+export const CASING_STORAGE = ["salted", "brine", "dry"] as const;
+export const MOVEMENT_KINDS = ["receipt", "transfer", "use", "waste", "adjustment", "count"] as const;
+export type MovementKind = (typeof MOVEMENT_KINDS)[number];
+export const DATE_KINDS = ["use_by", "best_before"] as const;
+export type DateKind = (typeof DATE_KINDS)[number];
+
+/** NUMERIC columns come back from pg as strings. */
+export interface ItemRow {
+  id: string;
+  company_id: string;
+  sku: string;
+  name: string;
+  category: ItemCategory;
+  stock_unit: StockUnit;
+  track_lots: boolean;
+  track_dates: boolean;
+  casing_kind: (typeof CASING_KINDS)[number] | null;
+  calibre_min_mm: string | null;
+  calibre_max_mm: string | null;
+  put_up: (typeof PUT_UPS)[number] | null;
+  put_up_metres: string | null;
+  capacity_kg_per_put_up: string | null;
+  storage: (typeof CASING_STORAGE)[number] | null;
+  nitrite_fraction: string | null;
+  nitrate_fraction: string | null;
+  form: string | null;
+  density_g_per_ml: string | null;
+  archived_at: Date | null;
+  created_at: Date;
+  updated_at: Date;
+}
+
+export interface ItemPackRow {
+  id: string;
+  company_id: string;
+  item_id: string;
+  name: string;
+  quantity: string;
+  unit: string;
+  stock_quantity: string;
+}
+
+export interface LotRow {
+  id: string;
+  company_id: string;
+  item_id: string;
+  code: string;
+  supplier_id: string | null;
+  supplier_name: string | null;
+  received_on: string; // yyyy-mm-dd
+  date: string | null;
+  date_kind: DateKind | null;
+  unit_cost: string;
+  created_at: Date;
+}
+
+export interface StockBalanceRow {
+  company_id: string;
+  kitchen_id: string;
+  item_id: string;
+  lot_id: string;
+  on_hand: string;
+  reserved: string;
+  updated_at: Date;
+}
+
+export interface StockMovementRow {
+  id: string;
+  company_id: string;
+  posting_id: string;
+  kind: MovementKind;
+  kitchen_id: string;
+  item_id: string;
+  lot_id: string;
+  delta: string;
+  counted: string | null;
+  entered_quantity: string | null;
+  entered_unit: string | null;
+  unit_cost: string;
+  reason: string | null;
+  other_kitchen_id: string | null;
+  reverses_id: string | null;
+  user_id: string | null;
+  occurred_at: Date;
+  recorded_at: Date;
+}
