@@ -20,14 +20,22 @@ import { SESSION_COOKIE } from "../auth/session";
 import type { CapturedMail } from "../data/captured-mail";
 import type { Company } from "../data/companies";
 import type { InvitationSummary } from "../data/invitations";
+import type { Item } from "../data/items";
 import type { Kitchen } from "../data/kitchens";
 import type { UserSummary } from "../data/users";
 import { invitationAcceptInput, passwordResetConfirmInput, passwordResetRequestInput, signInInput } from "../validation/auth";
 import { companyUpdateInput, invitationCreateInput, kitchenCreateInput, kitchenUpdateInput, userUpdateInput } from "../validation/company";
+import { itemCreateInput, itemListQuery, itemPatchInput } from "../validation/items";
+import { countSheetInput, movementInput, reverseInput, stockLevelInput } from "../validation/movements";
+import { lotsQuery, movementsQuery, stockQuery } from "../validation/stock";
 import {
   capturedMailListResponse, companyResponse, errorResponse, invitationListResponse, invitationSummaryResponse, kitchenListResponse,
   kitchenResponse, meResponse, okMessageResponse, okResponse, openApiDocumentResponse, signInResponse, userListResponse,
   userSummaryResponse, validationErrorResponse,
+} from "../validation/responses";
+import {
+  countPostedResponse, expiringLotListResponse, itemListResponse, itemResponse, movementListResponse,
+  movementPageResponse, stockLevelResponse, stockResponse,
 } from "../validation/responses";
 import { DEFAULT_MAX_BODY_BYTES } from "./route";
 
@@ -46,6 +54,7 @@ export type ResponseShapesMatch = [
   Assert<Same<z.infer<typeof invitationSummaryResponse>, InvitationSummary>>,
   Assert<Same<z.infer<typeof capturedMailListResponse>, CapturedMail[]>>,
   Assert<Same<z.infer<typeof meResponse>, ReturnType<typeof meBody>>>,
+  Assert<Same<z.infer<typeof itemResponse>, Item>>,
 ];
 
 // ---------------------------------------------------------------------------------------------
@@ -73,6 +82,27 @@ const TIME_ZONE = { description: "An IANA time zone name.", example: "Europe/Vie
 const LINK_TOKEN = { description: "The token from the e-mailed link." };
 const KITCHEN_IDS = { description: "Kitchens of your company (a kitchen lead acts only in these)." };
 
+const DECIMAL = (description: string, example: string) => ({ description: `${description} A decimal string; a JSON number is 422.`, example });
+const ITEM_NOTES: FieldNotes = {
+  sku: { description: "Unique in the company; letters, digits, dots, dashes, underscores; kept as typed. Not UUID-shaped (GET /api/items/{id} takes either).", example: "HOG-32-35" },
+  category: { description: "casing, cure, spice or ingredient. Fixed once the item has lots." },
+  unit: { description: "The stock unit: g, m, ml or pc. A casing in put-ups: pc (one pc = one put-up, fractions allowed); a cure: g. Fixed once the item has lots." },
+  trackLots: { description: "Default true. A cure's lots are always tracked (false is 422)." },
+  trackDates: { description: "Use-by/best-before per lot; needs trackLots. Default: as trackLots. Always true for a cure." },
+  packs: { description: "Purchase packs with exact sizes, e.g. {\"name\": \"25 lb pail\", \"quantity\": \"25\", \"unit\": \"lb\"}; the unit may be any unit of the item, its put-up or another pack. A unit that does not convert is 422 on packs.N.unit." },
+  casingKind: { description: "Casings: natural_hog, natural_sheep, natural_beef, collagen, fibrous or cellulose." },
+  calibreMinMm: DECIMAL("Casings: smallest calibre in mm (32 of 32/35).", "32"),
+  calibreMaxMm: DECIMAL("Casings: largest calibre in mm (35 of 32/35); default the smallest.", "35"),
+  putUp: { description: "Casings: hank (hog, sheep), beef_set (beef), tubed_strand, stick or box. Required for natural casings." },
+  putUpMetres: DECIMAL("Casings: metres in one put-up. Default 91.44 for a hank (100 yd); required for the other put-ups.", "91.44"),
+  capacityKgPerPutUp: DECIMAL("Casings: kg of filling one put-up holds. Default from the trade's calibre table (the lower bound of the band chosen by the lower calibre: a 32/35 mm hog hank holds 45 kg); outside the table a natural casing needs it entered (422).", "45"),
+  storage: { description: "Casings: salted, brine or dry. Default salted for natural casings, dry for manufactured." },
+  nitriteFraction: DECIMAL("Cures, required: sodium nitrite as a fraction of the cure's mass, from the label (6.25 % is 0.0625). Never assumed.", "0.0625"),
+  nitrateFraction: DECIMAL("Cures, required: sodium nitrate as a fraction, from the label (0 when there is none). Nitrite plus nitrate is more than 0 and at most 1.", "0"),
+  form: { description: "Spices and ingredients: ground, whole, flakes, liquid, culture..." },
+  densityGPerMl: DECIMAL("Spices and ingredients: grams per millilitre, for recipes given by volume. Not for cures (by mass only).", "1.03"),
+};
+
 const bodies = {
   signIn: requestBody("SignInInput", signInInput, { email: EMAIL }),
   passwordResetRequest: requestBody("PasswordResetRequestInput", passwordResetRequestInput, { email: EMAIL }),
@@ -97,6 +127,32 @@ const bodies = {
   invitationCreate: requestBody("InvitationCreateInput", invitationCreateInput, {
     email: EMAIL,
     kitchenIds: { description: "Kitchens of your company; a kitchen lead needs at least one." },
+  }),
+  itemCreate: requestBody("ItemCreateInput", itemCreateInput, ITEM_NOTES),
+  movement: requestBody("MovementInput", movementInput, {
+    kind: { description: "receipt, transfer, use, waste, adjustment or count." },
+    kitchen: { description: "The kitchen's code.", example: "YARD" },
+    item: { description: "The item's id or SKU.", example: "HOG-32-35" },
+    quantity: DECIMAL("Positive; an adjustment is signed and non-zero; a count is the counted quantity (zero or more).", "2.5"),
+    unit: { description: "Any unit of the item: g, kg, oz, lb, m, yd, ml, l, its put-up (hank...) or a pack name.", example: "hank" },
+    lot: { description: "A receipt: the new lot {code, date, dateKind, unitCost (per the unit typed)} or an existing lot's id. Other kinds: an existing lot's id, or leave it out to draw first-expired-first-out (expired lots skipped)." },
+    toKitchen: { description: "Transfers: the receiving kitchen's code.", example: "LANE" },
+    reason: { description: "Required for waste." },
+    occurredAt: { description: "When it happened; may be back-dated, never in the future. Default now." },
+  }),
+  reverse: requestBody("ReverseInput", reverseInput),
+  countSheet: requestBody("CountSheetInput", countSheetInput, {
+    kitchen: { description: "The kitchen's code.", example: "YARD" },
+    lines: { description: "One line per item (per lot for lot-tracked items): counted quantity and unit. All lines post together or none." },
+  }),
+  stockLevel: requestBody("StockLevelInput", stockLevelInput, {
+    parLevel: DECIMAL("In unit (default the stock unit); null clears it.", "4"),
+    reorderPoint: DECIMAL("In unit; not above the par level; null clears it.", "2"),
+  }),
+  itemPatch: requestBody("ItemPatchInput", itemPatchInput, {
+    ...ITEM_NOTES,
+    packs: { description: "Replaces every pack of the item." },
+    archived: { description: "true hides the item from lists and pickers; false brings it back. Its records stay." },
   }),
   userUpdate: requestBody("UserUpdateInput", userUpdateInput, {
     kitchenIds: { ...KITCHEN_IDS, description: "Replaces the user's kitchens. Kitchens of your company; a kitchen lead needs at least one." },
@@ -142,7 +198,7 @@ const ADMIN_ONLY = (what: string): Cause => ["FORBIDDEN", `Your role may not ${w
 // ---------------------------------------------------------------------------------------------
 // The endpoints. One entry per exported handler in app/api/**/route.ts.
 
-type Method = "get" | "post" | "patch" | "delete";
+type Method = "get" | "post" | "put" | "patch" | "delete";
 
 export interface EndpointDoc {
   method: Method;
@@ -168,6 +224,9 @@ export const TAGS = [
   { name: "Account", description: "The signed-in user." },
   { name: "Company", description: "The company every record belongs to." },
   { name: "Kitchens", description: "The company's kitchens: where stock lives and who may act where." },
+  { name: "Items", description: "The catalogue: casings, cures, spices and other ingredients, with their purchase packs." },
+  { name: "Stock", description: "On hand, reserved and available per kitchen and lot; par levels; lots about to expire." },
+  { name: "Ledger", description: "Movements: receipts, transfers, use, waste, adjustments and counts; reversals; count sheets." },
   { name: "Users", description: "People in the company, their roles and kitchens. Admins only." },
   { name: "Invitations", description: "Single-use e-mailed links that create accounts." },
   { name: "Mail catcher", description: "Local development only: e-mail caught instead of sent." },
@@ -179,6 +238,10 @@ const idParam = (what: string) =>
   z.object({
     id: z.uuid().meta({ description: `The ${what}'s id. An id that is not a UUID, or not in your company, answers 404.` }),
   });
+
+const ITEM_REF = z.object({
+  id: z.string().meta({ description: "The item's id (a UUID) or its SKU. Not in your company: 404.", example: "HOG-32-35" }),
+});
 
 const sessionCookieNote = (what: string) => `The ${SESSION_COOKIE} cookie (HttpOnly, SameSite=Lax, Path=/; Secure over HTTPS) ${what}.`;
 
@@ -281,6 +344,126 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
       403: [ADMIN_ONLY("manage kitchens")],
       404: [["NOT_FOUND", "No such kitchen in your company."]],
       409: [["CONFLICT", "Another kitchen already has this code (details.fields.code)."]],
+    },
+  },
+  // Stock and ledger ------------------------------------------------------------------------
+  {
+    method: "get", path: "/api/stock", operationId: "getStock", tag: "Stock", auth: true,
+    summary: "Stock per kitchen",
+    description: "Every item of the company with on hand, reserved and available, and its lots with stock (date, kind, days). With kitchen: that kitchen; without: every kitchen, per kitchen. Read from balances kept with each movement.",
+    query: stockQuery.extend({ kitchen: stockQuery.shape.kitchen.meta({ description: "A kitchen code." }) }),
+    success: { status: 200, description: "The stock.", schema: stockResponse },
+    errors: { 404: [["NOT_FOUND", "No such kitchen in your company."]] },
+  },
+  {
+    method: "get", path: "/api/lots", operationId: "listExpiringLots", tag: "Stock", auth: true,
+    summary: "Lots expiring soon",
+    description: "Dated lots with stock expiring within N days (default 30), soonest first, with the stock per kitchen; expired ones only with includeExpired=true.",
+    query: lotsQuery,
+    success: { status: 200, description: "The lots.", schema: expiringLotListResponse },
+  },
+  {
+    method: "put", path: "/api/stock-levels", operationId: "setStockLevel", tag: "Stock", auth: true,
+    summary: "Set par level and reorder point",
+    description: "For one item in one kitchen. Admins, managers and buyers anywhere; kitchen leads in their own kitchens.",
+    body: bodies.stockLevel,
+    success: { status: 200, description: "The levels as saved, in the stock unit.", schema: stockLevelResponse },
+    errors: { 403: [["FORBIDDEN", "Not your kitchen, or your role may not set levels."]], 404: [["NOT_FOUND", "No such kitchen or item in your company."]] },
+  },
+  {
+    method: "get", path: "/api/movements", operationId: "listMovements", tag: "Ledger", auth: true,
+    summary: "Movement history",
+    description: "Newest first, filtered by kitchen, item, lot, kind and time; pages by cursor. format=csv answers text/csv (X-Next-Cursor header for the next page).",
+    query: movementsQuery,
+    success: { status: 200, description: "A page of movements.", schema: movementPageResponse },
+    errors: { 404: [["NOT_FOUND", "No such kitchen or item in your company."]] },
+  },
+  {
+    method: "post", path: "/api/movements", operationId: "postMovement", tag: "Ledger", auth: true, idempotent: true,
+    summary: "Post a movement",
+    description: "A receipt creates its lot (a cure needs lot code, date and its kind); withdrawals that name no lot draw first-expired-first-out and may split across lots; a transfer moves a lot's stock to another kitchen; a count sets on hand to the counted quantity and posts the difference. Answers one movement per lot and kitchen touched. Send an Idempotency-Key so a retry cannot post twice.",
+    body: bodies.movement,
+    success: { status: 201, description: "The movements posted.", schema: movementListResponse },
+    errors: {
+      403: [["FORBIDDEN", "Not your kitchen, or your role may not post this kind (accountants post nothing; buyers receive)."]],
+      404: [["NOT_FOUND", "No such kitchen, item or lot in your company."]],
+      409: [["INSUFFICIENT_STOCK", "Not enough available stock (details.available, details.requested, details.unit)."], ["LOT_EXPIRED", "The named lot is past its date and cannot be used (waste it instead)."], ["LOT_EXISTS", "A receipt named a lot code the item already has; receive into it by id."]],
+      422: [["VALIDATION", "A unit that does not convert, a wrong sign, a transfer to the same kitchen, a lot of another item, a date in the future... (details.fields)."]],
+    },
+  },
+  {
+    method: "post", path: "/api/movements/{id}/reverse", operationId: "reverseMovement", tag: "Ledger", auth: true, idempotent: true,
+    summary: "Reverse a movement",
+    description: "Posts an equal and opposite movement (both legs of a transfer). Movements are never edited.",
+    params: idParam("movement"),
+    body: bodies.reverse,
+    success: { status: 201, description: "The reversing movements.", schema: movementListResponse },
+    errors: {
+      403: [["FORBIDDEN", "Not your kitchen, or your role may not post."]],
+      404: [["NOT_FOUND", "No such movement in your company."]],
+      409: [["ALREADY_REVERSED", "It has been reversed already."], ["CANNOT_REVERSE", "It is itself a reversal."], ["INSUFFICIENT_STOCK", "The stock it added has been used since."]],
+    },
+  },
+  {
+    method: "post", path: "/api/counts", operationId: "postCount", tag: "Ledger", auth: true, idempotent: true,
+    summary: "Post a count sheet",
+    description: "Every line's counted quantity, posted together in one transaction: all or nothing. Each line posts the difference to on hand (recorded also when it is zero).",
+    body: bodies.countSheet,
+    success: { status: 201, description: "The count's id and its movements.", schema: countPostedResponse },
+    errors: {
+      403: [["FORBIDDEN", "Not your kitchen, or your role may not count."]],
+      404: [["NOT_FOUND", "No such kitchen in your company."]],
+      422: [["VALIDATION", "A line is wrong: details.fields names it as lines.N.field."]],
+    },
+  },
+  // Items ---------------------------------------------------------------------------------
+  {
+    method: "get", path: "/api/items", operationId: "listItems", tag: "Items", auth: true,
+    summary: "List items",
+    description: "The company's items: casings first, then cures, spices and ingredients, each by SKU. Every role reads the catalogue.",
+    query: itemListQuery.extend({
+      category: itemListQuery.shape.category.meta({ description: "Only this category." }),
+      q: itemListQuery.shape.q.meta({ description: "Part of the SKU or name, any case." }),
+      archived: itemListQuery.shape.archived.meta({ description: "true: archived items too." }),
+    }),
+    success: { status: 200, description: "The items.", schema: itemListResponse },
+    errors: { 422: [["VALIDATION", "An unknown category, or a query parameter that is not valid (details.fields)."]] },
+  },
+  {
+    method: "post", path: "/api/items", operationId: "createItem", tag: "Items", auth: true, idempotent: true,
+    summary: "Add an item",
+    description: "Adds a casing, cure, spice or ingredient with its purchase packs; each pack's size is converted exactly to the stock unit and stored with it. Defaults: a hank is 91.44 m; a natural casing's capacity comes from the trade's calibre table; storage salted (natural) or dry; lots and dates tracked. A cure needs its nitrite and nitrate fractions from the label. Send an Idempotency-Key so a retried request cannot add it twice.",
+    body: bodies.itemCreate,
+    success: { status: 201, description: "The new item.", schema: itemResponse },
+    errors: {
+      403: [["FORBIDDEN", "Your role may not manage items (admins, managers and buyers only)."]],
+      409: [["CONFLICT", "Another item of your company has this SKU (details.fields.sku)."]],
+      422: [["VALIDATION", "A rule of the category is broken, e.g. a cure without its fractions, a casing capacity outside the trade table, or a pack unit that does not convert (details.fields names each, e.g. \"packs.0.unit\")."]],
+    },
+  },
+  {
+    method: "get", path: "/api/items/{id}", operationId: "getItem", tag: "Items", auth: true,
+    summary: "One item",
+    description: "An item of your company, by id or SKU.",
+    params: ITEM_REF,
+    success: { status: 200, description: "The item.", schema: itemResponse },
+    errors: { 404: [["NOT_FOUND", "No such item in your company (another company's item is 404 too)."]] },
+  },
+  {
+    method: "patch", path: "/api/items/{id}", operationId: "updateItem", tag: "Items", auth: true,
+    summary: "Change or archive an item",
+    description: "Changes the fields sent; null clears an optional attribute (a cleared put-up length or capacity takes its default again). The item is then checked as a whole. A new category drops the old category's attributes; a new casing kind, lower calibre, put-up or length takes the capacity from the trade table again unless one is sent. `packs` replaces every pack.",
+    params: ITEM_REF,
+    body: bodies.itemPatch,
+    success: { status: 200, description: "The item as saved.", schema: itemResponse },
+    errors: {
+      403: [["FORBIDDEN", "Your role may not manage items (admins, managers and buyers only)."]],
+      404: [["NOT_FOUND", "No such item in your company."]],
+      409: [
+        ["CONFLICT", "Another item of your company has this SKU (details.fields.sku)."],
+        ["ITEM_HAS_LOTS", "The item has lots: its category and stock unit can no longer change (details.fields names which)."],
+      ],
+      422: [["VALIDATION", "The item after the change breaks a rule of its category (details.fields names each field)."]],
     },
   },
   // Users ---------------------------------------------------------------------------------

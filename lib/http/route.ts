@@ -150,6 +150,11 @@ export function route<S extends z.ZodType | undefined = undefined, A extends boo
         body: body as never,
         user: user as never,
       });
+      if (result instanceof Response) {
+        // a finished response (a CSV download): passed through as it is
+        for (const c of cookies) result.headers.append("set-cookie", c);
+        return result as NextResponse;
+      }
       const reply = result instanceof Reply ? result : new Reply(200, result ?? { ok: true });
       if (idemScope) await storeIdempotentResponse(idemScope, { status: reply.status, body: reply.body });
       return json(reply.body, reply.status, [...cookies, ...reply.cookies]);

@@ -4,7 +4,7 @@
 // compile time) and can check a real response in a test. Plain zod: `.meta({ id })` names a
 // component for the document without extending zod, so nothing here changes other schemas.
 import { z } from "zod";
-import { ROLES } from "../../db/types";
+import { CASING_KINDS, CASING_STORAGE, DATE_KINDS, ITEM_CATEGORIES, MOVEMENT_KINDS, PUT_UPS, ROLES, STOCK_UNITS } from "../../db/types";
 
 const id = z.uuid();
 const timestamp = z.iso.datetime({ offset: true }).meta({ description: "ISO 8601 timestamp in UTC, e.g. 2026-12-02T09:30:00.000Z." });
@@ -142,3 +142,157 @@ export const openApiDocumentResponse = z
     paths: z.record(z.string(), z.unknown()),
   })
   .meta({ id: "OpenApiDocument", description: "This document (OpenAPI 3.1)." });
+
+// Items (lib/data/items.ts Item) ---------------------------------------------------------------
+const decimal = (description: string, example?: string) =>
+  z.string().meta({ description: `${description} A decimal string without trailing zeros.`, ...(example ? { example } : {}) });
+
+export const itemUnitsResponse = z
+  .object({
+    stockUnit: z.enum(STOCK_UNITS),
+    putUp: z
+      .object({ name: z.string().meta({ example: "hank" }), metres: decimal("Length of one put-up in metres.", "91.44") })
+      .nullable()
+      .optional()
+      .meta({ description: "Casings stocked in put-ups: one pc is one put-up." }),
+    densityGPerMl: z.string().nullable().optional().meta({ description: "Grams per millilitre (decimal string)." }),
+    packs: z
+      .array(z.object({ name: z.string(), quantity: z.string(), unit: z.string() }))
+      .readonly()
+      .nullable()
+      .optional(),
+  })
+  .meta({ id: "ItemUnits", description: "What the unit conversions need: stock unit, put-up, density and packs as entered." });
+
+export const itemResponse = z
+  .object({
+    id,
+    sku: z.string().meta({ example: "HOG-32-35" }),
+    name: z.string(),
+    category: z.enum(ITEM_CATEGORIES),
+    stockUnit: z.enum(STOCK_UNITS).meta({ description: "The unit stock is held in: g, m, ml or pc (a casing in put-ups: one pc = one put-up)." }),
+    trackLots: z.boolean(),
+    trackDates: z.boolean(),
+    archived: z.boolean(),
+    casing: z
+      .object({
+        kind: z.enum(CASING_KINDS),
+        calibreMinMm: decimal("Smallest calibre, mm.", "32"),
+        calibreMaxMm: decimal("Largest calibre, mm.", "35"),
+        putUp: z.enum(PUT_UPS).nullable(),
+        putUpMetres: decimal("Length of one put-up, m (a hank: 91.44).", "91.44").nullable(),
+        capacityKgPerPutUp: decimal("Kg of filling one put-up holds (planning default: the lower bound of the trade table's band).", "45").nullable(),
+        storage: z.enum(CASING_STORAGE),
+      })
+      .nullable()
+      .meta({ description: "Casings only." }),
+    cure: z
+      .object({
+        nitriteFraction: decimal("Sodium nitrite as a fraction of the cure's mass, from the label.", "0.0625"),
+        nitrateFraction: decimal("Sodium nitrate as a fraction of the cure's mass, from the label.", "0"),
+      })
+      .nullable()
+      .meta({ description: "Cures only: marks a curing salt (toxic in overdose; keep it labelled and apart from salt and spices)." }),
+    form: z.string().nullable().meta({ description: "Spices and ingredients: ground, whole, flakes, liquid, culture..." }),
+    densityGPerMl: z.string().nullable().meta({ description: "Spices and ingredients: grams per millilitre (decimal string)." }),
+    packs: z.array(
+      z.object({
+        name: z.string().meta({ example: "25 lb pail" }),
+        quantity: decimal("The size as entered.", "25"),
+        unit: z.string().meta({ example: "lb" }),
+        stockQuantity: decimal("The same size in the stock unit, exact to 12 decimals.", "11339.80925"),
+      }),
+    ),
+    itemUnits: itemUnitsResponse,
+    createdAt: timestamp,
+    updatedAt: timestamp,
+  })
+  .meta({ id: "Item" });
+
+export const itemListResponse = z.object({ items: z.array(itemResponse) }).meta({ id: "ItemList" });
+
+// Stock and the ledger (lib/data/ledger.ts Movement, lib/data/stock.ts) ------------------------
+const qty = (description: string, example?: string) => decimal(`${description} In the item's stock unit.`, example);
+const codeRef = z.object({ id, code: z.string().meta({ example: "YARD" }) });
+
+export const movementResponse = z
+  .object({
+    id,
+    postingId: z.uuid().meta({ description: "Shared by the movements one request posted (a count sheet: the count's id)." }),
+    kind: z.enum(MOVEMENT_KINDS),
+    kitchen: codeRef,
+    otherKitchen: codeRef.nullable().meta({ description: "Transfers: the kitchen on the other side." }),
+    item: z.object({ id, sku: z.string(), name: z.string(), unit: z.enum(STOCK_UNITS) }),
+    lot: codeRef,
+    delta: qty("Signed change of on hand.", "-150"),
+    quantity: qty("The size of the movement, zero or more (a count: the counted quantity).", "150"),
+    counted: qty("Counts: the counted quantity.").nullable(),
+    enteredQuantity: z.string().nullable().meta({ description: "The quantity as typed.", example: "0.15" }),
+    enteredUnit: z.string().nullable().meta({ description: "The unit as typed.", example: "kg" }),
+    unitCost: decimal("The lot's cost per stock unit, company currency.", "0.0125"),
+    reason: z.string().nullable(),
+    reversesId: z.uuid().nullable().meta({ description: "Reversals: the movement reversed." }),
+    occurredAt: timestamp,
+    recordedAt: timestamp,
+    userId: z.uuid().nullable(),
+  })
+  .meta({ id: "Movement" });
+
+export const movementListResponse = z.object({ movements: z.array(movementResponse) }).meta({ id: "MovementList" });
+export const movementPageResponse = z
+  .object({ movements: z.array(movementResponse), nextCursor: z.string().nullable().meta({ description: "Pass as cursor for the next page; null on the last." }) })
+  .meta({ id: "MovementPage" });
+export const countPostedResponse = z.object({ countId: id, movements: z.array(movementResponse) }).meta({ id: "CountPosted" });
+
+const stockLot = z.object({
+  lotId: id,
+  code: z.string(),
+  date: z.string().nullable().meta({ description: "Use-by or best-before, yyyy-mm-dd." }),
+  dateKind: z.enum(DATE_KINDS).nullable(),
+  receivedOn: z.string(),
+  onHand: qty("On hand."),
+  reserved: qty("Reserved for planned batches."),
+  available: qty("On hand minus reserved."),
+  unitCost: decimal("Per stock unit."),
+});
+const stockRow = z
+  .object({
+    itemId: id,
+    sku: z.string(),
+    name: z.string(),
+    category: z.enum(ITEM_CATEGORIES),
+    unit: z.enum(STOCK_UNITS),
+    trackLots: z.boolean(),
+    trackDates: z.boolean(),
+    casing: z.object({ kind: z.string(), calibreMinMm: z.string(), calibreMaxMm: z.string(), putUp: z.string().nullable(), metresPerPutUp: z.string().nullable() }).nullable(),
+    cure: z.object({ nitriteFraction: z.string(), nitrateFraction: z.string() }).nullable().meta({ description: "Cures only: the label's fractions; the row is a curing salt." }),
+    parLevel: qty("Par level here.").nullable(),
+    reorderPoint: qty("Reorder point here.").nullable(),
+    onHand: qty("On hand."),
+    reserved: qty("Reserved."),
+    available: qty("On hand minus reserved."),
+    lots: z.array(stockLot),
+  })
+  .meta({ id: "StockRow" });
+const kitchenNamed = z.object({ id, code: z.string(), name: z.string() });
+export const kitchenStockResponse = z.object({ kitchen: kitchenNamed, rows: z.array(stockRow) }).meta({ id: "KitchenStock" });
+export const allStockResponse = z.object({ kitchens: z.array(z.object({ kitchen: kitchenNamed, rows: z.array(stockRow) })) }).meta({ id: "AllKitchensStock" });
+export const stockResponse = z.union([kitchenStockResponse, allStockResponse]).meta({ id: "Stock" });
+
+export const expiringLotListResponse = z
+  .object({
+    lots: z.array(
+      z.object({
+        lotId: id, itemId: id, sku: z.string(), name: z.string(), category: z.enum(ITEM_CATEGORIES), unit: z.enum(STOCK_UNITS),
+        code: z.string(), date: z.string(), dateKind: z.enum(DATE_KINDS),
+        daysLeft: z.number().int().meta({ description: "Days from the company's today; negative when expired." }),
+        onHand: qty("On hand across kitchens."),
+        kitchens: z.array(z.object({ code: z.string(), onHand: z.string() })),
+      }),
+    ),
+  })
+  .meta({ id: "ExpiringLots" });
+
+export const stockLevelResponse = z
+  .object({ kitchen: z.string(), itemId: id, sku: z.string(), unit: z.enum(STOCK_UNITS), parLevel: qty("Par level.").nullable(), reorderPoint: qty("Reorder point.").nullable() })
+  .meta({ id: "StockLevel" });

@@ -9,6 +9,8 @@ import { z } from "zod";
 import { buildOpenApiDocument, SECURITY_SCHEME } from "@/lib/http/openapi";
 import * as authSchemas from "@/lib/validation/auth";
 import * as companySchemas from "@/lib/validation/company";
+import * as itemSchemas from "@/lib/validation/items";
+import * as movementSchemas from "@/lib/validation/movements";
 
 const ROOT = join(__dirname, "..", "..");
 const API_DIR = join(ROOT, "app", "api");
@@ -80,7 +82,7 @@ function refOf(schema: unknown): string | undefined {
 /** A deep copy, as the validator's plain-record type (it may annotate what it is given). */
 const asSpec = (d: typeof doc): Record<string, unknown> => JSON.parse(JSON.stringify(d)) as Record<string, unknown>;
 
-const requestSchemas: Record<string, unknown> = { ...authSchemas, ...companySchemas };
+const requestSchemas: Record<string, unknown> = { ...authSchemas, ...companySchemas, ...itemSchemas, ...movementSchemas };
 
 describe("route discovery", () => {
   it("finds the route files and their handlers", () => {
