@@ -50,7 +50,7 @@ const insufficient = (available: Dec, wanted: Dec, unit: string) =>
   });
 
 /** Retries a transaction that lost a deadlock or serialization race (transfers lock two kitchens). */
-async function inTransaction<T>(fn: (trx: Knex.Transaction) => Promise<T>): Promise<T> {
+export async function inTransaction<T>(fn: (trx: Knex.Transaction) => Promise<T>): Promise<T> {
   for (let attempt = 1; ; attempt++) {
     try {
       return await db().transaction(fn);
@@ -333,7 +333,7 @@ async function count(c: PostContext, input: MovementInput, counted: Dec): Promis
 }
 
 /** Posts one movement inside the caller's transaction (a count sheet posts many in one). */
-async function postInTransaction(trx: Knex.Transaction, actor: CurrentUser, input: MovementInput, postingId: string): Promise<StockMovementRow[]> {
+export async function postInTransaction(trx: Knex.Transaction, actor: CurrentUser, input: MovementInput, postingId: string): Promise<StockMovementRow[]> {
   const occurredAt = occurredAtOf(input);
   const kitchen = await kitchenByCode(trx, actor, input.kitchen);
   assertCan(actor, input.kind === "receipt" ? "stock.receive" : "stock.post", { kitchenId: kitchen.id });

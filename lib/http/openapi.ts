@@ -26,7 +26,9 @@ import type { UserSummary } from "../data/users";
 import { invitationAcceptInput, passwordResetConfirmInput, passwordResetRequestInput, signInInput } from "../validation/auth";
 import { companyUpdateInput, invitationCreateInput, kitchenCreateInput, kitchenUpdateInput, userUpdateInput } from "../validation/company";
 import { itemCreateInput, itemListQuery, itemPatchInput } from "../validation/items";
-import { countSheetInput, movementInput, reverseInput, stockLevelInput } from "../validation/movements";
+import {
+  countSheetInput, movementInput, reverseInput, stockLevelInput, transferDeclineInput, transferFulfilInput, transferRequestInput, transferRequestsQuery,
+} from "../validation/movements";
 import { lotsQuery, movementsQuery, stockQuery } from "../validation/stock";
 import {
   capturedMailListResponse, companyResponse, errorResponse, invitationListResponse, invitationSummaryResponse, kitchenListResponse,
@@ -35,7 +37,7 @@ import {
 } from "../validation/responses";
 import {
   countPostedResponse, expiringLotListResponse, itemListResponse, itemResponse, movementListResponse,
-  movementPageResponse, stockLevelResponse, stockResponse,
+  movementPageResponse, stockLevelResponse, stockResponse, transferFulfilledResponse, transferRequestListResponse, transferRequestResponse,
 } from "../validation/responses";
 import { DEFAULT_MAX_BODY_BYTES } from "./route";
 
@@ -141,6 +143,13 @@ const bodies = {
     occurredAt: { description: "When it happened; may be back-dated, never in the future. Default now." },
   }),
   reverse: requestBody("ReverseInput", reverseInput),
+  transferRequest: requestBody("TransferRequestInput", transferRequestInput, {
+    fromKitchen: { description: "The kitchen asked to send, by code.", example: "LANE" },
+    toKitchen: { description: "Your kitchen, which receives, by code.", example: "YARD" },
+    quantity: DECIMAL("Above zero, in unit.", "2"),
+  }),
+  transferFulfil: requestBody("TransferFulfilInput", transferFulfilInput, { lot: { description: "Send this lot; default first-expired-first-out." } }),
+  transferDecline: requestBody("TransferDeclineInput", transferDeclineInput),
   countSheet: requestBody("CountSheetInput", countSheetInput, {
     kitchen: { description: "The kitchen's code.", example: "YARD" },
     lines: { description: "One line per item (per lot for lot-tracked items): counted quantity and unit. All lines post together or none." },
@@ -414,6 +423,47 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
       403: [["FORBIDDEN", "Not your kitchen, or your role may not count."]],
       404: [["NOT_FOUND", "No such kitchen in your company."]],
       422: [["VALIDATION", "A line is wrong: details.fields names it as lines.N.field."]],
+    },
+  },
+  {
+    method: "get", path: "/api/transfer-requests", operationId: "listTransferRequests", tag: "Ledger", auth: true,
+    summary: "Transfer requests",
+    description: "Requests between the company's kitchens, newest first; kitchen filters those the kitchen sends or receives.",
+    query: transferRequestsQuery,
+    success: { status: 200, description: "The requests.", schema: transferRequestListResponse },
+  },
+  {
+    method: "post", path: "/api/transfer-requests", operationId: "requestTransfer", tag: "Ledger", auth: true, idempotent: true,
+    summary: "Ask another kitchen for stock",
+    description: "A kitchen lead asks for its own kitchen (managers and admins for any); the sending kitchen's lead or a manager fulfils or declines it.",
+    body: bodies.transferRequest,
+    success: { status: 201, description: "The open request.", schema: transferRequestResponse },
+    errors: { 403: [["FORBIDDEN", "You may ask only for your own kitchen."]], 404: [["NOT_FOUND", "No such kitchen or item in your company."]] },
+  },
+  {
+    method: "post", path: "/api/transfer-requests/{id}/fulfil", operationId: "fulfilTransferRequest", tag: "Ledger", auth: true, idempotent: true,
+    summary: "Fulfil a transfer request",
+    description: "Posts the transfer from the asked kitchen and closes the request, in one transaction. A shortfall leaves it open.",
+    params: idParam("transfer request"),
+    body: bodies.transferFulfil,
+    success: { status: 201, description: "The closed request and the transfer's movements.", schema: transferFulfilledResponse },
+    errors: {
+      403: [["FORBIDDEN", "Only the sending kitchen's lead, a manager or an admin."]],
+      404: [["NOT_FOUND", "No such request in your company."]],
+      409: [["REQUEST_CLOSED", "Already fulfilled, declined or cancelled."], ["INSUFFICIENT_STOCK", "Not enough available in the sending kitchen."]],
+    },
+  },
+  {
+    method: "post", path: "/api/transfer-requests/{id}/decline", operationId: "declineTransferRequest", tag: "Ledger", auth: true,
+    summary: "Decline a transfer request",
+    description: "With a reason the asking kitchen sees.",
+    params: idParam("transfer request"),
+    body: bodies.transferDecline,
+    success: { status: 200, description: "The declined request.", schema: transferRequestResponse },
+    errors: {
+      403: [["FORBIDDEN", "Only the sending kitchen's lead, a manager or an admin."]],
+      404: [["NOT_FOUND", "No such request in your company."]],
+      409: [["REQUEST_CLOSED", "Already fulfilled, declined or cancelled."]],
     },
   },
   // Items ---------------------------------------------------------------------------------

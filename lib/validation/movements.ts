@@ -79,3 +79,21 @@ export const stockLevelInput = z.object({
   reorderPoint: decimalString({ scale: 12 }).nullable(),
   unit: z.string().trim().min(1).max(40).optional(),
 });
+
+export const transferRequestInput = z
+  .object({
+    fromKitchen: z.string().trim().min(1, "Name the kitchen asked, by its code.").max(40),
+    toKitchen: z.string().trim().min(1, "Name your kitchen, by its code.").max(40),
+    item: z.string().trim().min(1, "Name the item by id or SKU.").max(80),
+    quantity: decimalString({ scale: 12 }).refine((q) => !/^0*(\.0*)?$/.test(q), "Ask for a quantity above zero."),
+    unit: z.string().trim().min(1, "Enter the unit.").max(40),
+    note: z.string().trim().max(500).optional(),
+  })
+  .refine((v) => v.fromKitchen.toUpperCase() !== v.toKitchen.toUpperCase(), { path: ["fromKitchen"], message: "Ask another kitchen than your own." });
+
+export const transferFulfilInput = z.object({ lot: uuid.optional() });
+export const transferDeclineInput = z.object({ reason: z.string().trim().min(1, "Say why the request is declined.").max(500) });
+export const transferRequestsQuery = z.object({
+  status: z.enum(["open", "fulfilled", "declined", "cancelled"]).optional(),
+  kitchen: z.string().trim().min(1).max(40).optional(),
+});

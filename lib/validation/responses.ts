@@ -296,3 +296,25 @@ export const expiringLotListResponse = z
 export const stockLevelResponse = z
   .object({ kitchen: z.string(), itemId: id, sku: z.string(), unit: z.enum(STOCK_UNITS), parLevel: qty("Par level.").nullable(), reorderPoint: qty("Reorder point.").nullable() })
   .meta({ id: "StockLevel" });
+
+export const transferRequestResponse = z
+  .object({
+    id,
+    status: z.enum(["open", "fulfilled", "declined", "cancelled"]),
+    fromKitchen: codeRef,
+    toKitchen: codeRef,
+    item: z.object({ id, sku: z.string(), name: z.string(), unit: z.string() }),
+    quantity: qty("Asked for."),
+    enteredQuantity: z.string(),
+    enteredUnit: z.string(),
+    note: z.string().nullable(),
+    requestedBy: z.uuid().nullable(),
+    requestedAt: timestamp,
+    decidedBy: z.uuid().nullable(),
+    decidedAt: timestamp.nullable(),
+    declineReason: z.string().nullable(),
+    postingId: z.uuid().nullable().meta({ description: "The transfer's movements, once fulfilled." }),
+  })
+  .meta({ id: "TransferRequest" });
+export const transferRequestListResponse = z.object({ requests: z.array(transferRequestResponse) }).meta({ id: "TransferRequestList" });
+export const transferFulfilledResponse = z.object({ request: transferRequestResponse, movements: z.array(movementResponse) }).meta({ id: "TransferFulfilled" });
