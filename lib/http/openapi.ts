@@ -700,7 +700,7 @@ function buildRegistry(): OpenAPIRegistry {
 
 const registry = buildRegistry();
 
-const DESCRIPTION = `JSON API of Hank & Lot: the company, its kitchens, users and invitations. Every endpoint lives under \`/api\` on the same host as the app.
+const DESCRIPTION = `JSON API of Hank & Lot: the company, its kitchens, users and invitations; the catalogue of casings, cures and spices; stock per kitchen and lot; and the movement ledger (receipts, transfers, use, waste, adjustments, counts, reversals, transfer requests). Every endpoint lives under \`/api\` on the same host as the app.
 
 ## Conventions
 
