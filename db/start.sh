@@ -30,7 +30,7 @@ echo "[hank&lot] starting Redis on 127.0.0.1:$REDIS_PORT"
 export REDIS_URL="$(bash jobs/redis.sh start | tail -n 1)"
 
 node --import tsx node_modules/knex/bin/cli.js --knexfile knexfile.ts migrate:latest
-node --import tsx db/seeds/load-demo.ts
+node --conditions=react-server --import tsx db/seeds/load-demo.ts
 
 if [ "${SKIP_BUILD:-0}" != 1 ] || [ ! -f .next/BUILD_ID ]; then
   echo "[hank&lot] building the web app"

@@ -56,7 +56,7 @@ if has bench; then
   for b in tests/bench/*.ts; do
     [ -e "$b" ] || continue
     echo "[test] benchmark at tiny size: $b"
-    BENCH_SIZE=tiny node --import tsx "$b"
+    BENCH_SIZE=tiny node --conditions=react-server --import tsx "$b"
   done
 fi
 

@@ -1,11 +1,15 @@
 import knexFactory, { type Knex } from "knex";
 import { register as registerCjs } from "tsx/cjs/api";
 import { register as registerEsm } from "tsx/esm/api";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+import { closeDb } from "../../db/client";
 import { DEMO_COMPANIES, DEMO_PASSWORD } from "../../db/seeds/demo-data";
 import { loadDemo } from "../../db/seeds/load-demo";
 import { verifyPassword } from "../../lib/auth/password";
+import { getStock } from "../../lib/data/stock";
+import { dec } from "../../lib/units";
 import { tag } from "../support/factory";
+import { currentUser } from "../support/sessions";
 
 // The demo seed must run on an EMPTY database, so it gets one of its own: created through the
 // cluster's superuser, which db/pg.sh sets up with trust authentication on 127.0.0.1.
@@ -14,10 +18,11 @@ const adminUrl = Object.assign(new URL(appUrl), { username: "postgres", password
 let admin: Knex;
 
 /** A new, migrated database owned by the app's role. */
-async function freshDatabase(): Promise<{ knex: Knex; drop: () => Promise<void> }> {
+async function freshDatabase(): Promise<{ knex: Knex; url: string; drop: () => Promise<void> }> {
   const name = `hl_test_seed_${tag()}`;
   await admin.raw(`create database ?? owner ??`, [name, appUrl.username]);
-  const knex = knexFactory({ client: "pg", connection: Object.assign(new URL(appUrl), { pathname: `/${name}` }).toString(), pool: { min: 0, max: 2 } });
+  const url = Object.assign(new URL(appUrl), { pathname: `/${name}` }).toString();
+  const knex = knexFactory({ client: "pg", connection: url, pool: { min: 0, max: 2 } });
   const drop = async () => {
     await knex.destroy();
     await admin.raw(`drop database if exists ?? with (force)`, [name]);
@@ -34,20 +39,32 @@ async function freshDatabase(): Promise<{ knex: Knex; drop: () => Promise<void> 
     unCjs();
     await unEsm();
   }
-  return { knex, drop };
+  return { knex, url, drop };
 }
 
 let seedDb: Knex;
 let dropSeedDb: (() => Promise<void>) | undefined;
 let loaded: boolean;
+let loadSeconds: number;
+let planWarnings: unknown[][];
 
 beforeAll(async () => {
   admin = knexFactory({ client: "pg", connection: adminUrl.toString(), pool: { min: 0, max: 1 } });
-  ({ knex: seedDb, drop: dropSeedDb } = await freshDatabase());
+  let url: string;
+  ({ knex: seedDb, url, drop: dropSeedDb } = await freshDatabase());
+  // the demo stock is posted through lib/data, whose handle (db/client.ts) is opened on first use
+  // from DATABASE_URL: point it at the seed's own database before anything here opens it
+  process.env.DATABASE_URL = url;
+  const warn = vi.spyOn(console, "warn");
+  const started = performance.now();
   loaded = await loadDemo(seedDb);
-}, 60_000);
+  loadSeconds = (performance.now() - started) / 1000;
+  planWarnings = [...warn.mock.calls];
+  warn.mockRestore();
+}, 180_000);
 
 afterAll(async () => {
+  await closeDb();
   await dropSeedDb?.();
   await admin?.destroy();
 });
@@ -117,4 +134,124 @@ describe("loadDemo on an empty database", () => {
       await drop();
     }
   }, 60_000);
+});
+
+describe("the demo stock of the first demo company", () => {
+  const company = () => seedDb("companies").where({ name: "Quillmoor Provisions" }).first<{ id: string; time_zone: string }>();
+  /** The company's today, as the ledger reckons expiry. */
+  const today = async (c: { time_zone: string }) =>
+    (await seedDb.raw<{ rows: { d: string }[] }>("select to_char((now() at time zone ?)::date, 'YYYY-MM-DD') as d", [c.time_zone])).rows[0]!.d;
+
+  it("loads as planned, in reasonable time", () => {
+    expect(loaded).toBe(true);
+    expect(planWarnings).toEqual([]); // every planned posting went through and on hand is what the plan expected
+    console.info(`[demo-seed] demo load took ${loadSeconds.toFixed(1)} s`);
+  });
+
+  it("has casings by calibre, with capacities from the trade table or stated", async () => {
+    const c = await company();
+    const casings = await seedDb("items").where({ company_id: c!.id, category: "casing" }).orderBy("sku");
+    expect(casings).toHaveLength(11);
+    const cap = (sku: string) => casings.find((i) => i.sku === sku)?.capacity_kg_per_put_up;
+    // lower bound of the band, trade-facts §4 (natural casing trade tables) [sec/practice]
+    expect(cap("HOG-32-35")).toBe("45.000000000000"); // 32-34 band of hog hanks
+    expect(cap("HOG-35-38")).toBe("48.000000000000"); // 34-36 band
+    expect(cap("SHP-20-22")).toBe("21.000000000000");
+    expect(cap("BEEF-RND-40-43")).toBe("36.000000000000"); // per 30 m set of rounds
+    expect(cap("BEEF-MID-50-55")).toBe("32.000000000000"); // per 18 m of middles
+    expect(cap("HOG-28-30")).toBe("36.000000000000"); // below the table: the stated capacity (demo data)
+    const hank = casings.find((i) => i.sku === "HOG-32-35")!;
+    expect(hank).toMatchObject({ put_up: "hank", put_up_metres: "91.440000000000", storage: "salted", stock_unit: "pc" });
+  });
+
+  it("has cures with their label strengths, lot-tracked with dates, one lot expiring within six weeks and one expired with stock left", async () => {
+    const c = await company();
+    const d = await today(c!);
+    const cures = await seedDb("items").where({ company_id: c!.id, category: "cure" });
+    expect(cures.map((i) => [i.nitrite_fraction, i.nitrate_fraction]).sort()).toEqual([
+      ["0.00600000", "0.00000000"], ["0.06250000", "0.00000000"], ["0.06250000", "0.04000000"],
+    ]);
+    expect(cures.every((i) => i.track_lots && i.track_dates)).toBe(true);
+    const lots = await seedDb("lots as l")
+      .join("items as i", "i.id", "l.item_id")
+      .where({ "i.company_id": c!.id, "i.category": "cure" })
+      .select("l.id", "l.code", seedDb.raw("to_char(l.date, 'YYYY-MM-DD') as date"), "l.date_kind",
+        seedDb.raw("(select coalesce(sum(on_hand), 0) from stock_balances b where b.lot_id = l.id)::text as on_hand"));
+    expect(lots.length).toBeGreaterThanOrEqual(6);
+    expect(lots.every((l) => l.date && l.date_kind)).toBe(true);
+    const in42 = new Date(Date.parse(`${d}T00:00:00Z`) + 42 * 86_400_000).toISOString().slice(0, 10);
+    expect(lots.filter((l) => l.date >= d && l.date <= in42 && dec(l.on_hand).gt(0)).length).toBeGreaterThanOrEqual(1);
+    expect(lots.filter((l) => l.date < d && dec(l.on_hand).gt(0)).length).toBeGreaterThanOrEqual(1);
+  });
+
+  it("has at least 25 spices and other ingredients, with packs, liquids with a density and a frozen culture", async () => {
+    const c = await company();
+    const rest = await seedDb("items").where({ company_id: c!.id }).whereIn("category", ["spice", "ingredient"]);
+    expect(rest.length).toBeGreaterThanOrEqual(25);
+    expect(rest.find((i) => i.sku === "SMOKE-LIQ")).toMatchObject({ stock_unit: "ml", density_g_per_ml: "1.040000000000" });
+    expect(rest.find((i) => i.sku === "CULTURE-SM4")).toMatchObject({ track_lots: true, track_dates: true });
+    const packs = await seedDb("item_packs").where({ company_id: c!.id }).pluck("name");
+    expect(packs).toEqual(expect.arrayContaining(["25 kg sack", "1 kg bag", "500 g tub", "box of 10 hanks"]));
+  });
+
+  it("has six months of history ending today, by the demo users in their roles", async () => {
+    const c = await company();
+    const span = (await seedDb.raw<{ rows: { first: Date; last: Date }[] }>(
+      "select min(occurred_at) as first, max(occurred_at) as last from stock_movements where company_id = ?", [c!.id])).rows[0]!;
+    const days = (Date.now() - span.first.getTime()) / 86_400_000;
+    expect(days).toBeGreaterThan(175);
+    expect(days).toBeLessThan(190);
+    expect(Date.now() - span.last.getTime()).toBeLessThan(86_400_000);
+
+    const kinds = await seedDb("stock_movements").where({ company_id: c!.id }).groupBy("kind").select("kind", seedDb.raw("count(*)::int as n"));
+    const n = Object.fromEntries(kinds.map((k) => [k.kind, k.n]));
+    expect(Object.keys(n).sort()).toEqual(["count", "receipt", "transfer", "use", "waste"]);
+    expect(n.use).toBeGreaterThan(300);
+    expect(Number((await seedDb("stock_movements").where({ company_id: c!.id }).whereNotNull("reverses_id").count<{ n: string }[]>("* as n"))[0]!.n)).toBeGreaterThanOrEqual(2);
+    expect(await seedDb("stock_movements").where({ company_id: c!.id, kind: "waste" }).whereNull("reverses_id").whereRaw("coalesce(reason, '') = ''").first()).toBeUndefined();
+    expect(Number((await seedDb("stock_counts").where({ company_id: c!.id }).count<{ n: string }[]>("* as n"))[0]!.n)).toBeGreaterThanOrEqual(15);
+
+    // the buyer receives; the lead and the manager use, waste and count; the lead only at the Yard
+    const by = await seedDb("stock_movements as m")
+      .join("app_users as u", "u.id", "m.user_id")
+      .join("kitchens as k", "k.id", "m.kitchen_id")
+      .where("m.company_id", c!.id)
+      .groupBy("u.role", "m.kind")
+      .select("u.role", "m.kind", seedDb.raw("array_agg(distinct k.code order by k.code) as kitchens"));
+    const roles = (kind: string) => by.filter((r) => r.kind === kind).map((r) => r.role).sort();
+    expect(roles("receipt")).toEqual(["buyer"]);
+    expect(roles("use")).toEqual(["kitchen_lead", "manager"]);
+    expect(roles("count")).toEqual(["kitchen_lead", "manager"]);
+    expect(new Set(by.filter((r) => r.role === "kitchen_lead" && r.kind !== "transfer").flatMap((r) => r.kitchens))).toEqual(new Set(["YARD"]));
+  });
+
+  it("keeps every balance equal to the sum of its movements, none negative", async () => {
+    const c = await company();
+    const r = await seedDb.raw(
+      `select coalesce(b.kitchen_id, m.kitchen_id) as kitchen_id, coalesce(b.lot_id, m.lot_id) as lot_id, b.on_hand, m.total
+         from (select * from stock_balances where company_id = :c) b
+         full join (select kitchen_id, lot_id, sum(delta) as total from stock_movements where company_id = :c group by 1, 2) m
+           on m.kitchen_id = b.kitchen_id and m.lot_id = b.lot_id
+        where coalesce(b.on_hand, 0) <> coalesce(m.total, 0) or b.on_hand < 0`,
+      { c: c!.id },
+    );
+    expect(r.rows).toEqual([]);
+    expect(Number((await seedDb("stock_balances").where({ company_id: c!.id }).count<{ n: string }[]>("* as n"))[0]!.n)).toBeGreaterThan(50);
+  });
+
+  it("has par levels and reorder points for most items, a few below their reorder point today", async () => {
+    const c = await company();
+    const levels = await seedDb("stock_levels").where({ company_id: c!.id });
+    expect(levels.length).toBeGreaterThan(50);
+    const manager = await seedDb("app_users").where({ company_id: c!.id, role: "manager" }).first("id");
+    const stock = await getStock(await currentUser(manager.id));
+    expect(stock.map((k) => k.kitchen.code)).toEqual(["LANE", "ROPE", "YARD"]);
+    const below = stock.flatMap((k) => k.rows.filter((r) => r.reorderPoint !== null && dec(r.onHand).lt(r.reorderPoint)).map((r) => `${k.kitchen.code} ${r.sku}`));
+    expect(below.length).toBeGreaterThanOrEqual(2);
+    // the stock API reads what the ledger holds
+    const yard = stock.find((k) => k.kitchen.code === "YARD")!;
+    const salt = yard.rows.find((r) => r.sku === "SALT-FINE")!;
+    const sum = await seedDb("stock_movements").where({ kitchen_id: yard.kitchen.id, item_id: salt.itemId }).sum<{ s: string }[]>("delta as s");
+    expect(dec(salt.onHand).eq(dec(sum[0]!.s))).toBe(true);
+  });
 });
