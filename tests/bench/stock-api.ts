@@ -42,7 +42,9 @@ const benchUrl = Object.assign(new URL(appUrl), { pathname: `/${dbName}` }).toSt
 process.env.DATABASE_URL = benchUrl;
 
 const { closeDb } = await import("../../db/client");
-const { getStock } = await import("../../lib/data/stock");
+const { getStock, STOCK_ITEMS_SQL, STOCK_LOTS_SQL } = await import("../../lib/data/stock");
+type StockItemLine = import("../../lib/data/stock").StockItemLine;
+type StockLotLine = import("../../lib/data/stock").StockLotLine;
 const { loadCurrentUser } = await import("../../lib/data/users");
 const { dec, plain } = await import("../../lib/units");
 
@@ -208,31 +210,25 @@ function* moreMovements(ids: Ids, count: number, seed: number) {
 // ---------------------------------------------------------------------------------------------
 // the two ways of reading one kitchen's stock
 
-/** The queries getStock issues, written out: kitchens, then items, balances and levels side by side. */
+/** The statements getStock issues (exported by lib/data/stock.ts), run directly without shaping. */
 async function directSql(knex: Knex, companyId: string, code: string) {
   const kitchens = (await knex.raw<{ rows: { id: string; code: string }[] }>(
     `select * from kitchens where company_id = ? and archived_at is null and upper(code) = upper(?) order by code`, [companyId, code])).rows;
-  const ids = kitchens.map((k) => k.id);
-  const list = ids.map(() => "?").join(", ");
-  const [items, balances, levels] = await Promise.all([
-    knex.raw<{ rows: { id: string; sku: string }[] }>(
-      `select * from items where company_id = ? and archived_at is null order by category asc, calibre_min_mm asc, name asc`, [companyId]),
-    knex.raw<{ rows: { kitchen_id: string; item_id: string; lot_id: string; on_hand: string; reserved: string; code: string }[] }>(
-      `select b.kitchen_id, b.item_id, b.lot_id, b.on_hand, b.reserved, l.code, l.date, l.date_kind,
-              to_char(l.received_on, 'YYYY-MM-DD') as received_on, l.unit_cost
-         from stock_balances as b inner join lots as l on l.id = b.lot_id
-        where b.company_id = ? and b.kitchen_id in (${list}) and (b.on_hand > 0 or b.reserved > 0)
-        order by l.date is null, l.date, l.received_on, l.code`, [companyId, ...ids]),
-    knex.raw<{ rows: { item_id: string; par_level: string | null }[] }>(
-      `select kitchen_id, item_id, par_level, reorder_point from stock_levels where company_id = ? and kitchen_id in (${list})`, [companyId, ...ids]),
+  const params = { company: companyId, kitchen: kitchens[0]!.id };
+  const [items, lots] = await Promise.all([
+    knex.raw<{ rows: StockItemLine[] }>(STOCK_ITEMS_SQL, params),
+    knex.raw<{ rows: StockLotLine[] }>(STOCK_LOTS_SQL, params),
   ]);
-  return { kitchens, items: items.rows, balances: balances.rows, levels: levels.rows };
+  return { kitchens, items: items.rows, balances: lots.rows };
 }
 
 type Api = Awaited<ReturnType<typeof getStock>>;
 type Direct = Awaited<ReturnType<typeof directSql>>;
 
-/** The API's answer and the direct SQL's rows must say the same; throws on the first difference. */
+/**
+ * The API's answer and the direct SQL's rows must say the same, and each item's on hand must be
+ * the sum of its lots' (checked with exact decimals); throws on the first difference.
+ */
 function assertAgree(api: Api, direct: Direct) {
   const fail = (what: string) => {
     throw new Error(`getStock and the direct SQL disagree: ${what}`);
@@ -242,15 +238,15 @@ function assertAgree(api: Api, direct: Direct) {
   if (rows.length !== direct.items.length) fail(`${rows.length} rows against ${direct.items.length} items`);
   const lines = new Map<string, Direct["balances"]>();
   for (const b of direct.balances) (lines.get(b.item_id) ?? lines.set(b.item_id, []).get(b.item_id)!).push(b);
-  const levels = new Map(direct.levels.map((l) => [l.item_id, l]));
   rows.forEach((r, n) => {
-    if (r.itemId !== direct.items[n]!.id) fail(`row ${n} is ${r.sku}, the SQL has ${direct.items[n]!.sku}`);
+    const d = direct.items[n]!;
+    if (r.itemId !== d.id) fail(`row ${n} is ${r.sku}, the SQL has ${d.sku}`);
+    if (r.onHand !== d.on_hand || r.available !== d.available) fail(`${r.sku} on hand ${r.onHand}, the SQL ${d.on_hand}`);
     const ls = lines.get(r.itemId) ?? [];
-    const onHand = ls.reduce((s, l) => s.plus(dec(l.on_hand)), dec("0"));
-    if (r.onHand !== plain(onHand)) fail(`${r.sku} on hand ${r.onHand}, the SQL sums ${plain(onHand)}`);
+    const sum = ls.reduce((s, l) => s.plus(dec(l.on_hand)), dec("0"));
+    if (plain(sum) !== r.onHand) fail(`${r.sku} on hand ${r.onHand}, its lots sum to ${plain(sum)}`);
     if (r.lots.map((l) => l.lotId).join() !== ls.map((l) => l.lot_id).join()) fail(`${r.sku} lots`);
-    const par = levels.get(r.itemId)?.par_level ?? null;
-    if ((r.parLevel ?? null) !== (par === null ? null : plain(dec(par)))) fail(`${r.sku} par level`);
+    if (r.parLevel !== d.par_level) fail(`${r.sku} par level`);
   });
   return { rows: rows.length, lots: direct.balances.length };
 }
