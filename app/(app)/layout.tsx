@@ -3,6 +3,7 @@ import { Rail } from "@/components/shell/rail";
 import { KitchenSwitcher } from "@/components/shell/kitchen-switcher";
 import { sectionsFor } from "@/components/shell/sections";
 import { Wordmark } from "@/components/brand/logo-mark";
+import { QueryProvider } from "@/components/providers/query-provider";
 import { requireUser } from "@/lib/auth/session";
 import { getCurrentKitchen } from "@/lib/data/current-kitchen";
 import { ROLE_LABELS } from "@/lib/auth/roles";
@@ -20,7 +21,7 @@ export default async function AppLayout({ children }: { children: React.ReactNod
     <div className="flex min-h-screen">
       <Rail sections={sections} />
       <div className="flex min-w-0 flex-1 flex-col">
-        <header className="flex min-h-[64px] flex-wrap items-center justify-between gap-3 border-b border-salt-edge bg-white px-6 py-2">
+        <header className="flex min-h-[64px] flex-wrap items-center justify-between gap-3 border-b border-salt-edge bg-white px-6 py-2 print:hidden">
           <div className="flex items-center gap-4">
             <Wordmark className="text-lg" />
             <span className="text-sm text-brine">{user.companyName}</span>
@@ -39,7 +40,7 @@ export default async function AppLayout({ children }: { children: React.ReactNod
             </form>
           </div>
         </header>
-        <main id="main" className="flex-1 px-6 py-6">{children}</main>
+        <main id="main" className="flex-1 px-6 py-6 print:p-0"><QueryProvider>{children}</QueryProvider></main>
       </div>
     </div>
   );

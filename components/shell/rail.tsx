@@ -17,7 +17,7 @@ const ICONS: Record<SectionKey, LucideIcon> = {
 export function Rail({ sections }: { sections: { key: SectionKey; href: string; label: string }[] }) {
   const pathname = usePathname();
   return (
-    <nav aria-label="Main" className="flex w-[92px] shrink-0 flex-col items-center gap-1 bg-smoke py-4 text-smoke-text">
+    <nav aria-label="Main" className="flex w-[92px] shrink-0 flex-col items-center gap-1 bg-smoke py-4 text-smoke-text print:hidden">
       <Link href="/stock" className="mb-4 flex min-h-touch min-w-touch items-center justify-center rounded-md text-smoke-text" aria-label="Hank & Lot home">
         <LogoMark className="h-9 w-9" />
       </Link>
