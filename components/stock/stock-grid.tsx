@@ -36,7 +36,7 @@ import {
   type ValueSetterParams,
 } from "ag-grid-community";
 import { AgGridReact, type CustomCellEditorProps, type CustomCellRendererProps } from "ag-grid-react";
-import { ChevronDown, ChevronRight, ClipboardList, Download, History, Loader2, RotateCcw, Search, Undo2 } from "lucide-react";
+import { ChevronDown, ChevronRight, ClipboardList, Download, History, Loader2, PencilLine, RotateCcw, Search, Undo2 } from "lucide-react";
 import Link from "next/link";
 import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } from "react";
 import { CureCaution } from "@/components/cure/cure-caution";
@@ -47,6 +47,7 @@ import type { ItemCategory } from "@/db/types";
 import { ApiError, newIdempotencyKey, postCount, putStockLevel, stockQueryOptions } from "@/lib/queries/stock";
 import { dec, type UnitSystem } from "@/lib/units";
 import { HistorySheet, type HistoryTarget } from "./history-sheet";
+import { StockActionSheet, type ActionTarget } from "./stock-action-sheet";
 import {
   buildRows,
   casingLabel,
@@ -117,6 +118,8 @@ interface GridContext {
   toggleGroup: (g: ItemCategory) => void;
   toggleItem: (rowId: string) => void;
   openHistory: (row: ItemRow | LotRow) => void;
+  canPost: boolean;
+  openRecord: (row: ItemRow | LotRow) => void;
   refuse: (message: string) => void;
 }
 
@@ -286,6 +289,12 @@ function HistoryCell({ data: d, context: ctx }: CustomCellRendererProps<GridRow,
         <History aria-hidden className="h-4 w-4" />
         History
       </button>
+      {ctx.canPost ? (
+        <button type="button" tabIndex={-1} aria-label={`Record for ${d.item.sku}${d.kind === "lot" ? `, lot ${d.lot.code}` : ""}`} onClick={() => ctx.openRecord(d)} className="btn-quiet min-h-touch gap-1.5 px-3 text-sm">
+          <PencilLine aria-hidden className="h-4 w-4" />
+          Record
+        </button>
+      ) : null}
     </div>
   );
 }
@@ -420,7 +429,7 @@ const keepHierarchy = (p: PostSortRowsParams<GridRow>) => {
   p.nodes.splice(0, p.nodes.length, ...sorted);
 };
 
-export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCount, canSetLevels }: {
+export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCount, canSetLevels, canPost = false }: {
   kitchen: { code: string; name: string };
   userId: string;
   unitSystem: UnitSystem;
@@ -429,6 +438,8 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
   today: string;
   canCount: boolean;
   canSetLevels: boolean;
+  /** waste, adjustments and transfers out from a row's Record sheet (stock.post here) */
+  canPost?: boolean;
 }) {
   const queryClient = useQueryClient();
   const query = useQuery({ ...stockQueryOptions(kitchen.code), staleTime: 0 });
@@ -445,6 +456,7 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
   pendingRef.current = pending;
   const [posting, setPosting] = useState(false);
   const [history, setHistory] = useState<HistoryTarget | null>(null);
+  const [record, setRecord] = useState<ActionTarget | null>(null);
   const [canUndo, setCanUndo] = useState(false);
   // bumped to rebuild the rows from the fetched data (after a discard or a posted count)
   const [rowsVersion, setRowsVersion] = useState(0);
@@ -497,9 +509,11 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
         refreshItemCells([id]);
       },
       openHistory: (row) => setHistory({ item: row.item, lot: row.kind === "lot" ? row.lot : undefined }),
+      canPost,
+      openRecord: (row) => setRecord({ item: row.item, lot: row.kind === "lot" ? row.lot : undefined }),
       refuse: (message) => setNotice({ tone: "error", text: message }),
     }),
-    [unitSystem, today, canCount, canSetLevels, refreshItemCells],
+    [unitSystem, today, canCount, canSetLevels, canPost, refreshItemCells],
   );
 
   const quantitySetter = useCallback((field: "counted" | "parLevel" | "reorderPoint", what: string) => (p: ValueSetterParams<GridRow>) => {
@@ -595,10 +609,10 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
     defs.push(levelCol("parLevel", "Par level", 124), levelCol("reorderPoint", "Reorder point", 172));
     defs.push({
       colId: "history",
-      headerName: "History",
+      headerName: canPost ? "History and record" : "History",
       pinned: "right",
       lockPinned: true,
-      width: 124,
+      width: canPost ? 232 : 124,
       resizable: false,
       sortable: false,
       filter: false,
@@ -616,7 +630,7 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
       hidden("unit", "Stock unit", (d) => d.item.unit),
     );
     return defs;
-  }, [canCount, canSetLevels, quantitySetter]);
+  }, [canCount, canSetLevels, canPost, quantitySetter]);
 
   const defaultColDef = useMemo<ColDef<GridRow>>(() => ({ sortable: true, resizable: true, suppressMovable: false }), []);
 
@@ -976,6 +990,18 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
         timeZone={timeZone}
         currentUserId={userId}
       />
+      {canPost ? (
+        <StockActionSheet
+          kitchen={kitchen.code}
+          target={record}
+          onClose={() => setRecord(null)}
+          onDone={(text) => {
+            setRecord(null);
+            setNotice({ tone: "success", text });
+          }}
+          unitSystem={unitSystem}
+        />
+      ) : null}
     </div>
   );
 }

@@ -26,7 +26,12 @@ export default async function Page() {
         title="Stock"
         kitchen={kitchen}
         description="On-hand casings, cures and spices in this kitchen, by lot and date."
-        actions={<Link href="/stock/items" className="btn-quiet">Items</Link>}
+        actions={
+          <>
+            <Link href="/stock/items" className="btn-quiet">Items</Link>
+            <Link href="/stock/transfers" className="btn-quiet">Transfers</Link>
+          </>
+        }
       />
       {kitchen && can(user, "stock.read", { kitchenId: kitchen.id }) ? (
         <StockGrid
@@ -37,6 +42,7 @@ export default async function Page() {
           today={todayIn(user.timeZone)}
           canCount={can(user, "stock.post", { kitchenId: kitchen.id })}
           canSetLevels={can(user, "levels.manage", { kitchenId: kitchen.id })}
+          canPost={can(user, "stock.post", { kitchenId: kitchen.id })}
         />
       ) : (
         <EmptyState title="No kitchen to show">

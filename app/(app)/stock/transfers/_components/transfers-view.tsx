@@ -1,0 +1,460 @@
+"use client";
+
+// Transfer requests of the current kitchen: what others ask of it (fulfil or decline, where the
+// user may fulfil here) and what it asked of others (their status), plus "Ask another kitchen".
+import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
+import { ArrowLeftRight, Loader2, Plus } from "lucide-react";
+import { useMemo, useState, type FormEvent } from "react";
+import type { Item } from "@/lib/data/items";
+import type { TransferRequest } from "@/lib/data/transfer-requests";
+import { ApiError, newIdempotencyKey, stockKeys } from "@/lib/queries/stock";
+import { unitsFor } from "@/lib/units";
+import { CureCaution } from "@/components/cure/cure-caution";
+import { DataTable, RowHeader, TBody, Td, Th, THead } from "@/components/ui/data-table";
+import { describedBy, FieldError, FormMessage, StatusRegion, TextField } from "@/components/ui/field";
+import { SideSheet, SideSheetFooter } from "@/components/ui/side-sheet";
+
+interface KitchenOption {
+  id: string;
+  code: string;
+  name: string;
+}
+
+async function send<T>(url: string, init?: { method: string; body: unknown; key?: string }): Promise<T> {
+  let res: Response;
+  try {
+    res = await fetch(url, {
+      credentials: "same-origin",
+      method: init?.method ?? "GET",
+      headers: {
+        accept: "application/json",
+        ...(init ? { "content-type": "application/json" } : {}),
+        ...(init?.key ? { "idempotency-key": init.key } : {}),
+      },
+      body: init ? JSON.stringify(init.body) : undefined,
+    });
+  } catch {
+    throw new ApiError(0, "NETWORK", "The server could not be reached. Check the connection and try again.");
+  }
+  const body: unknown = await res.json().catch(() => null);
+  if (!res.ok) {
+    const e = (body as { error?: { code?: string; message?: string; details?: { fields?: Record<string, string[]> } } } | null)?.error;
+    throw new ApiError(res.status, e?.code ?? "HTTP_ERROR", e?.message ?? `The server answered ${res.status}.`, e?.details?.fields ?? {});
+  }
+  return body as T;
+}
+
+const transferKeys = { kitchen: (code: string) => ["transfer-requests", code.toUpperCase()] as const };
+
+const STATUS_WORDS: Record<TransferRequest["status"], { word: string; className: string }> = {
+  open: { word: "Open", className: "border-amber/40 bg-amber-soft text-pepper" },
+  fulfilled: { word: "Fulfilled", className: "border-herb/40 bg-herb-soft text-herb" },
+  declined: { word: "Declined", className: "border-ember/40 bg-ember-soft text-ember" },
+  cancelled: { word: "Cancelled", className: "border-salt-edge bg-salt-deep text-pepper" },
+};
+
+function StatusTag({ status }: { status: TransferRequest["status"] }) {
+  const s = STATUS_WORDS[status];
+  return <span className={`inline-flex rounded-full border px-2.5 py-0.5 text-sm font-semibold ${s.className}`}>{s.word}</span>;
+}
+
+export function TransfersView({ kitchen, kitchens, timeZone, canFulfil, canRequest }: {
+  kitchen: { code: string; name: string };
+  kitchens: KitchenOption[];
+  timeZone: string;
+  canFulfil: boolean;
+  canRequest: boolean;
+}) {
+  const queryClient = useQueryClient();
+  const key = transferKeys.kitchen(kitchen.code);
+  const q = useQuery({
+    queryKey: key,
+    queryFn: () => send<{ requests: TransferRequest[] }>(`/api/transfer-requests?kitchen=${encodeURIComponent(kitchen.code)}`),
+    staleTime: 0,
+  });
+  const [asking, setAsking] = useState(false);
+  const [declining, setDeclining] = useState<TransferRequest | null>(null);
+  const [notice, setNotice] = useState<{ tone: "success" | "error"; text: string } | null>(null);
+  const when = useMemo(() => new Intl.DateTimeFormat("en-GB", { timeZone, dateStyle: "medium", timeStyle: "short" }), [timeZone]);
+  const nameOf = (code: string) => kitchens.find((k) => k.code.toUpperCase() === code.toUpperCase())?.name ?? code;
+  const here = kitchen.code.toUpperCase();
+  const requests = q.data?.requests ?? [];
+  const askedOfUs = requests.filter((r) => r.fromKitchen.code.toUpperCase() === here && r.status === "open");
+  const askedByUs = requests.filter((r) => r.toKitchen.code.toUpperCase() === here);
+
+  const refresh = async () => {
+    await queryClient.invalidateQueries({ queryKey: key });
+    await queryClient.invalidateQueries({ queryKey: stockKeys.all });
+  };
+
+  const fulfil = useMutation({
+    mutationFn: (r: TransferRequest) => send(`/api/transfer-requests/${r.id}/fulfil`, { method: "POST", body: {}, key: newIdempotencyKey() }),
+    onSuccess: async (_d, r) => {
+      await refresh();
+      setNotice({ tone: "success", text: `Sent ${r.enteredQuantity} ${r.enteredUnit} of ${r.item.sku} to ${nameOf(r.toKitchen.code)}.` });
+    },
+    onError: (e, r) => setNotice({ tone: "error", text: `The request for ${r.item.sku} was not fulfilled: ${e.message}` }),
+  });
+
+  return (
+    <div className="space-y-6">
+      <div className="flex flex-wrap items-center justify-between gap-3">
+        <StatusRegion>{notice?.tone === "success" ? notice.text : null}</StatusRegion>
+        {canRequest ? (
+          <button type="button" className="btn-primary" onClick={() => setAsking(true)}>
+            <Plus aria-hidden className="h-5 w-5" /> Ask another kitchen
+          </button>
+        ) : null}
+      </div>
+      {notice?.tone === "error" ? <FormMessage tone="error">{notice.text}</FormMessage> : null}
+
+      {q.isPending ? (
+        <p role="status" className="flex items-center gap-2 text-brine">
+          <Loader2 aria-hidden className="h-4 w-4 animate-spin" /> Loading the requests…
+        </p>
+      ) : q.isError ? (
+        <FormMessage tone="error">The requests could not be loaded: {q.error.message}</FormMessage>
+      ) : (
+        <>
+          <section aria-labelledby="asked-of-us" className="space-y-2">
+            <h2 id="asked-of-us" className="text-xl font-semibold">Asked of this kitchen</h2>
+            {askedOfUs.length === 0 ? (
+              <p className="text-brine">No open requests from other kitchens.</p>
+            ) : (
+              <DataTable caption="Open requests other kitchens made of this kitchen">
+                <THead>
+                  <Th>Item</Th>
+                  <Th numeric>Quantity</Th>
+                  <Th>Asking kitchen</Th>
+                  <Th>Note</Th>
+                  <Th>Asked at</Th>
+                  {canFulfil ? <Th action /> : null}
+                </THead>
+                <TBody>
+                  {askedOfUs.map((r) => (
+                    <tr key={r.id}>
+                      <RowHeader>
+                        {r.item.sku}
+                        <span className="block text-sm font-normal text-brine">{r.item.name}</span>
+                      </RowHeader>
+                      <Td numeric>{r.enteredQuantity} {r.enteredUnit}</Td>
+                      <Td>{nameOf(r.toKitchen.code)}</Td>
+                      <Td className="max-w-[14rem] text-sm">{r.note ?? <span className="text-brine">—</span>}</Td>
+                      <Td className="whitespace-nowrap text-sm"><time dateTime={r.requestedAt}>{when.format(new Date(r.requestedAt))}</time></Td>
+                      {canFulfil ? (
+                        <Td action>
+                          <div className="flex justify-end gap-2">
+                            <button
+                              type="button"
+                              className="btn-primary"
+                              disabled={fulfil.isPending}
+                              aria-label={`Fulfil ${r.item.sku} for ${nameOf(r.toKitchen.code)}`}
+                              onClick={() => {
+                                setNotice(null);
+                                fulfil.mutate(r);
+                              }}
+                            >
+                              {fulfil.isPending && fulfil.variables?.id === r.id ? <Loader2 aria-hidden className="h-5 w-5 animate-spin" /> : null}
+                              Fulfil
+                            </button>
+                            <button
+                              type="button"
+                              className="btn-quiet"
+                              aria-label={`Decline ${r.item.sku} for ${nameOf(r.toKitchen.code)}`}
+                              onClick={() => {
+                                setNotice(null);
+                                setDeclining(r);
+                              }}
+                            >
+                              Decline
+                            </button>
+                          </div>
+                        </Td>
+                      ) : null}
+                    </tr>
+                  ))}
+                </TBody>
+              </DataTable>
+            )}
+          </section>
+
+          <section aria-labelledby="asked-by-us" className="space-y-2">
+            <h2 id="asked-by-us" className="text-xl font-semibold">Asked by this kitchen</h2>
+            {askedByUs.length === 0 ? (
+              <p className="text-brine">This kitchen has not asked another for stock yet.{canRequest ? " Use “Ask another kitchen” to ask." : ""}</p>
+            ) : (
+              <DataTable caption="Requests this kitchen made of other kitchens">
+                <THead>
+                  <Th>Item</Th>
+                  <Th numeric>Quantity</Th>
+                  <Th>Kitchen asked</Th>
+                  <Th>Status</Th>
+                  <Th>Asked at</Th>
+                  <Th>Decline reason</Th>
+                </THead>
+                <TBody>
+                  {askedByUs.map((r) => (
+                    <tr key={r.id}>
+                      <RowHeader>
+                        {r.item.sku}
+                        <span className="block text-sm font-normal text-brine">{r.item.name}</span>
+                      </RowHeader>
+                      <Td numeric>{r.enteredQuantity} {r.enteredUnit}</Td>
+                      <Td>{nameOf(r.fromKitchen.code)}</Td>
+                      <Td><StatusTag status={r.status} /></Td>
+                      <Td className="whitespace-nowrap text-sm"><time dateTime={r.requestedAt}>{when.format(new Date(r.requestedAt))}</time></Td>
+                      <Td className="max-w-[14rem] text-sm">{r.declineReason ?? <span className="text-brine">—</span>}</Td>
+                    </tr>
+                  ))}
+                </TBody>
+              </DataTable>
+            )}
+          </section>
+        </>
+      )}
+
+      {canRequest ? (
+        <SideSheet open={asking} onClose={() => setAsking(false)} title="Ask another kitchen" description={`Stock for ${kitchen.name}, sent by the kitchen you ask.`}>
+          <AskForm
+            kitchen={kitchen}
+            others={kitchens.filter((k) => k.code.toUpperCase() !== here)}
+            onCancel={() => setAsking(false)}
+            onDone={async (text) => {
+              setAsking(false);
+              await refresh();
+              setNotice({ tone: "success", text });
+            }}
+          />
+        </SideSheet>
+      ) : null}
+
+      {canFulfil ? (
+        <SideSheet
+          open={declining !== null}
+          onClose={() => setDeclining(null)}
+          title={declining ? `Decline ${declining.item.sku}` : "Decline"}
+          description={declining ? `${declining.enteredQuantity} ${declining.enteredUnit} asked by ${nameOf(declining.toKitchen.code)}` : undefined}
+        >
+          {declining ? (
+            <DeclineForm
+              request={declining}
+              onCancel={() => setDeclining(null)}
+              onDone={async (text) => {
+                setDeclining(null);
+                await refresh();
+                setNotice({ tone: "success", text });
+              }}
+            />
+          ) : null}
+        </SideSheet>
+      ) : null}
+    </div>
+  );
+}
+
+function DeclineForm({ request, onCancel, onDone }: { request: TransferRequest; onCancel: () => void; onDone: (text: string) => Promise<void> }) {
+  const [reason, setReason] = useState("");
+  const [fields, setFields] = useState<Record<string, string[]>>({});
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  const submit = async (e: FormEvent) => {
+    e.preventDefault();
+    if (busy) return;
+    setBusy(true);
+    setError(null);
+    setFields({});
+    try {
+      await send(`/api/transfer-requests/${request.id}/decline`, { method: "POST", body: { reason: reason.trim() } });
+      await onDone(`Declined the request for ${request.item.sku}.`);
+    } catch (e2) {
+      if (e2 instanceof ApiError && Object.keys(e2.fields).length) setFields(e2.fields);
+      else setError(`Not declined: ${e2 instanceof Error ? e2.message : "something went wrong."}`);
+    } finally {
+      setBusy(false);
+    }
+  };
+  return (
+    <form onSubmit={(e) => void submit(e)} noValidate className="space-y-5">
+      <div>
+        <label htmlFor="decline-reason" className="field-label">Reason</label>
+        <textarea
+          id="decline-reason"
+          name="reason"
+          rows={3}
+          maxLength={500}
+          className="field-input"
+          data-autofocus=""
+          value={reason}
+          onChange={(e) => setReason(e.target.value)}
+          required
+          {...describedBy("decline-reason", fields.reason)}
+        />
+        <FieldError id="decline-reason" errors={fields.reason} />
+      </div>
+      {error ? <FormMessage tone="error">{error}</FormMessage> : null}
+      <SideSheetFooter>
+        <button type="button" className="btn-quiet" onClick={onCancel}>Cancel</button>
+        <button type="submit" className="btn-primary" disabled={busy}>
+          {busy ? <Loader2 aria-hidden className="h-5 w-5 animate-spin" /> : null}
+          Decline request
+        </button>
+      </SideSheetFooter>
+    </form>
+  );
+}
+
+function AskForm({ kitchen, others, onCancel, onDone }: {
+  kitchen: { code: string; name: string };
+  others: KitchenOption[];
+  onCancel: () => void;
+  onDone: (text: string) => Promise<void>;
+}) {
+  const items = useQuery({ queryKey: ["items", "active"], queryFn: () => send<{ items: Item[] }>("/api/items"), staleTime: 60_000 });
+  const [itemId, setItemId] = useState("");
+  const [quantity, setQuantity] = useState("");
+  const [unit, setUnit] = useState("");
+  const [from, setFrom] = useState(others.length === 1 ? others[0]!.code : "");
+  const [note, setNote] = useState("");
+  const [fields, setFields] = useState<Record<string, string[]>>({});
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+
+  const list = (items.data?.items ?? []).filter((i) => !i.archived);
+  const item = list.find((i) => i.id === itemId);
+  const units = useMemo(() => {
+    if (!item) return [];
+    try {
+      return unitsFor(item.itemUnits).map((c) => ({ unit: c.unit, label: c.label }));
+    } catch {
+      return [{ unit: item.stockUnit, label: item.stockUnit }];
+    }
+  }, [item]);
+
+  const submit = async (e: FormEvent) => {
+    e.preventDefault();
+    if (busy) return;
+    setBusy(true);
+    setError(null);
+    setFields({});
+    const body = {
+      fromKitchen: from,
+      toKitchen: kitchen.code,
+      item: itemId,
+      quantity: quantity.trim().replace(",", "."),
+      unit: unit || units[0]?.unit || "",
+      ...(note.trim() ? { note: note.trim() } : {}),
+    };
+    try {
+      await send("/api/transfer-requests", { method: "POST", body, key: newIdempotencyKey() });
+      const label = units.find((u) => u.unit === body.unit)?.label ?? body.unit;
+      await onDone(`Asked ${others.find((k) => k.code === from)?.name ?? from} for ${body.quantity} ${label} of ${item?.sku ?? "the item"}.`);
+    } catch (e2) {
+      if (e2 instanceof ApiError && Object.keys(e2.fields).length) {
+        setFields(e2.fields);
+        const unplaced = Object.keys(e2.fields).filter((k) => !["item", "quantity", "unit", "fromKitchen", "note"].includes(k));
+        setError(unplaced.length ? `Not asked: ${e2.fields[unplaced[0]!]?.[0] ?? e2.message}` : "Not asked: check the fields marked below.");
+      } else {
+        setError(`Not asked: ${e2 instanceof Error ? e2.message : "something went wrong."}`);
+      }
+    } finally {
+      setBusy(false);
+    }
+  };
+
+  return (
+    <form onSubmit={(e) => void submit(e)} noValidate className="space-y-5">
+      <div>
+        <label htmlFor="ask-item" className="field-label">Item</label>
+        <select
+          id="ask-item"
+          name="item"
+          className="field-input"
+          data-autofocus=""
+          value={itemId}
+          onChange={(e) => {
+            setItemId(e.target.value);
+            setUnit("");
+          }}
+          required
+          {...describedBy("ask-item", fields.item)}
+        >
+          <option value="">{items.isPending ? "Loading items…" : "Choose an item"}</option>
+          {list.map((i) => <option key={i.id} value={i.id}>{i.sku} · {i.name}</option>)}
+        </select>
+        <FieldError id="ask-item" errors={fields.item} />
+        {items.isError ? <FormMessage tone="error">The items could not be loaded: {items.error.message}</FormMessage> : null}
+      </div>
+      {item?.cure ? <CureCaution /> : null}
+
+      <div className="grid grid-cols-[1fr_auto] gap-3">
+        <TextField
+          name="quantity"
+          id="ask-quantity"
+          label="Quantity"
+          inputMode="decimal"
+          autoComplete="off"
+          value={quantity}
+          onChange={(e) => setQuantity(e.target.value)}
+          errors={fields.quantity}
+          required
+        />
+        <div>
+          <label htmlFor="ask-unit" className="field-label">Unit</label>
+          <select
+            id="ask-unit"
+            name="unit"
+            className="field-input"
+            value={unit || units[0]?.unit || ""}
+            onChange={(e) => setUnit(e.target.value)}
+            disabled={!item}
+            {...describedBy("ask-unit", fields.unit)}
+          >
+            {item ? units.map((u) => <option key={u.unit} value={u.unit}>{u.label}</option>) : <option value="">—</option>}
+          </select>
+          <FieldError id="ask-unit" errors={fields.unit} />
+        </div>
+      </div>
+
+      <div>
+        <label htmlFor="ask-from" className="field-label">Kitchen to ask</label>
+        <select
+          id="ask-from"
+          name="fromKitchen"
+          className="field-input"
+          value={from}
+          onChange={(e) => setFrom(e.target.value)}
+          required
+          {...describedBy("ask-from", fields.fromKitchen)}
+        >
+          <option value="">Choose a kitchen</option>
+          {others.map((k) => <option key={k.id} value={k.code}>{k.name} ({k.code})</option>)}
+        </select>
+        <FieldError id="ask-from" errors={fields.fromKitchen} />
+      </div>
+
+      <div>
+        <label htmlFor="ask-note" className="field-label">Note (optional)</label>
+        <textarea
+          id="ask-note"
+          name="note"
+          rows={3}
+          maxLength={500}
+          className="field-input"
+          value={note}
+          onChange={(e) => setNote(e.target.value)}
+          {...describedBy("ask-note", fields.note)}
+        />
+        <FieldError id="ask-note" errors={fields.note} />
+      </div>
+
+      {error ? <FormMessage tone="error">{error}</FormMessage> : null}
+      <SideSheetFooter>
+        <button type="button" className="btn-quiet" onClick={onCancel}>Cancel</button>
+        <button type="submit" className="btn-primary" disabled={busy}>
+          {busy ? <Loader2 aria-hidden className="h-5 w-5 animate-spin" /> : <ArrowLeftRight aria-hidden className="h-5 w-5" />}
+          Send request
+        </button>
+      </SideSheetFooter>
+    </form>
+  );
+}
