@@ -8,6 +8,7 @@ import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { Loader2 } from "lucide-react";
 import { useId, useMemo, useRef, useState, type FormEvent } from "react";
 import type { StockLot, StockRow } from "@/lib/data/stock";
+import { apiFetch, jsonInit } from "@/lib/queries/api";
 import { ApiError, newIdempotencyKey, stockQueryOptions } from "@/lib/queries/stock";
 import { globalUnitsOf, DIMENSION_OF_BASE, unitsFor, type UnitSystem } from "@/lib/units";
 import { CureCaution } from "@/components/cure/cure-caution";
@@ -46,9 +47,7 @@ function unitOptions(item: StockRow): { unit: string; label: string }[] {
 }
 
 async function fetchKitchens(): Promise<KitchenOption[]> {
-  const res = await fetch("/api/kitchens", { credentials: "same-origin", headers: { accept: "application/json" } });
-  if (!res.ok) throw new Error(`The kitchens could not be loaded (${res.status}).`);
-  const body = (await res.json()) as { kitchens: (KitchenOption & { archived: boolean })[] };
+  const body = await apiFetch<{ kitchens: (KitchenOption & { archived: boolean })[] }>("/api/kitchens");
   return body.kitchens.filter((k) => !k.archived);
 }
 
@@ -118,32 +117,20 @@ function ActionForm({ kitchen, item, lot, onDone, onCancel, unitSystem }: {
       ...(kind === "transfer" && toKitchen ? { toKitchen } : {}),
     };
     try {
-      let res: Response;
       try {
-        res = await fetch("/api/movements", {
-          method: "POST",
-          credentials: "same-origin",
-          headers: { "content-type": "application/json", accept: "application/json", "idempotency-key": newIdempotencyKey() },
-          body: JSON.stringify(body),
-        });
-      } catch {
-        throw new ApiError(0, "NETWORK", "The server could not be reached. Nothing was recorded; check the connection and try again.");
-      }
-      const json: unknown = await res.json().catch(() => null);
-      if (!res.ok) {
-        const err = (json as { error?: { code?: string; message?: string; details?: { fields?: Record<string, string[]>; available?: string; unit?: string } } } | null)?.error;
-        const code = err?.code ?? "HTTP_ERROR";
-        if (res.status === 422 && err?.details?.fields) {
-          setFields(err.details.fields);
-          const unplaced = Object.entries(err.details.fields).filter(([k]) => !["quantity", "unit", "reason", "toKitchen"].includes(k));
-          setError(unplaced.length ? `Not recorded: ${unplaced[0]![1][0] ?? err.message}` : "Not recorded: check the fields marked below.");
-        } else if (code === "INSUFFICIENT_STOCK") {
-          const a = err?.details?.available;
-          setError(`Not recorded: not enough stock.${a !== undefined ? ` Only ${quantityText(a, item, unitSystem).main} available${lot ? ` in lot ${lot.code}` : ""}.` : ""} ${err?.message ?? ""}`.trim());
-        } else if (code === "LOT_EXPIRED") {
-          setError(`Not recorded: ${err?.message ?? "the lot is past its date."}`);
+        await apiFetch("/api/movements", jsonInit("POST", body, { "idempotency-key": newIdempotencyKey() }));
+      } catch (e) {
+        if (!(e instanceof ApiError)) throw e;
+        if (e.status === 0) throw new ApiError(0, "NETWORK", "The server could not be reached. Nothing was recorded; check the connection and try again.");
+        if (e.status === 422 && Object.keys(e.fields).length) {
+          setFields(e.fields);
+          const unplaced = Object.entries(e.fields).filter(([k]) => !["quantity", "unit", "reason", "toKitchen"].includes(k));
+          setError(unplaced.length ? `Not recorded: ${unplaced[0]![1][0] ?? e.message}` : "Not recorded: check the fields marked below.");
+        } else if (e.code === "INSUFFICIENT_STOCK") {
+          const a = typeof e.details.available === "string" ? e.details.available : undefined;
+          setError(`Not recorded: not enough stock.${a !== undefined ? ` Only ${quantityText(a, item, unitSystem).main} available${lot ? ` in lot ${lot.code}` : ""}.` : ""} ${e.message}`.trim());
         } else {
-          setError(`Not recorded: ${err?.message ?? `the server answered ${res.status}.`}`);
+          setError(`Not recorded: ${e.message}`);
         }
         return;
       }

@@ -72,7 +72,7 @@ export interface DemoPlan {
 // Deterministic randomness and dates
 
 /** mulberry32: small, fast, good enough for demo data; seeded so every run plans the same. */
-function generator(seed: number) {
+export function generator(seed: number) {
   let a = seed >>> 0;
   const next = () => {
     a = (a + 0x6d2b79f5) >>> 0;

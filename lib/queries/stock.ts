@@ -11,39 +11,9 @@ export const stockKeys = {
     ["movements", f.kitchen.toUpperCase(), f.item, f.lot ?? null] as const,
 };
 
-export class ApiError extends Error {
-  constructor(
-    readonly status: number,
-    readonly code: string,
-    message: string,
-    /** Messages per field by dotted path, e.g. "lines.3.counted" (422 answers). */
-    readonly fields: Record<string, string[]> = {},
-  ) {
-    super(message);
-    this.name = "ApiError";
-  }
-}
+export { ApiError } from "./api";
+import { apiFetch as send, jsonInit as json } from "./api";
 
-async function send<T>(url: string, init?: RequestInit): Promise<T> {
-  let res: Response;
-  try {
-    res = await fetch(url, { credentials: "same-origin", ...init, headers: { accept: "application/json", ...init?.headers } });
-  } catch {
-    throw new ApiError(0, "NETWORK", "The server could not be reached. Check the connection and try again.");
-  }
-  const body: unknown = await res.json().catch(() => null);
-  if (!res.ok) {
-    const e = (body as { error?: { code?: string; message?: string; details?: { fields?: Record<string, string[]> } } } | null)?.error;
-    throw new ApiError(res.status, e?.code ?? "HTTP_ERROR", e?.message ?? `The server answered ${res.status}.`, e?.details?.fields ?? {});
-  }
-  return body as T;
-}
-
-const json = (method: string, body: unknown, headers: Record<string, string> = {}): RequestInit => ({
-  method,
-  headers: { "content-type": "application/json", ...headers },
-  body: JSON.stringify(body),
-});
 
 /** GET /api/stock?kitchen=CODE */
 export const fetchStock = (kitchen: string) => send<KitchenStock>(`/api/stock?kitchen=${encodeURIComponent(kitchen)}`);

@@ -22,6 +22,7 @@ import { pipeline } from "node:stream/promises";
 import knexFactory, { type Knex } from "knex";
 import pg from "pg";
 import { from as copyFrom } from "pg-copy-streams";
+import { generator } from "../../db/seeds/demo-stock-plan";
 
 const SIZES = {
   tiny: { kitchens: 2, items: 20, lots: 100, movements: 2_000, grownTo: 10_000, warmups: 1, runs: 5 },
@@ -55,18 +56,6 @@ const fmt = (n: number) => Math.round(n).toLocaleString("en-US");
 const mb = (bytes: number | string) => `${(Number(bytes) / 1024 ** 2).toFixed(0)} MB`;
 const seconds = (ms: number) => `${(ms / 1000).toFixed(1)} s`;
 
-/** Deterministic randomness (mulberry32), so every run loads the same shape of data. */
-function generator(seed: number) {
-  let a = seed >>> 0;
-  const next = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return { next, int: (min: number, max: number) => min + Math.floor(next() * (max - min + 1)) };
-}
 
 /** COPY ... FROM STDIN (text format) of the rows a generator yields, in chunks of about 256 KiB. */
 async function copyRows(client: pg.Client, table: string, columns: readonly string[], rows: Iterable<readonly (string | null)[]>): Promise<{ rows: number; ms: number }> {

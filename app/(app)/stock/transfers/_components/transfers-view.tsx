@@ -7,6 +7,7 @@ import { ArrowLeftRight, Loader2, Plus } from "lucide-react";
 import { useMemo, useState, type FormEvent } from "react";
 import type { Item } from "@/lib/data/items";
 import type { TransferRequest } from "@/lib/data/transfer-requests";
+import { apiFetch, jsonInit } from "@/lib/queries/api";
 import { ApiError, newIdempotencyKey, stockKeys } from "@/lib/queries/stock";
 import { unitsFor } from "@/lib/units";
 import { CureCaution } from "@/components/cure/cure-caution";
@@ -20,29 +21,8 @@ interface KitchenOption {
   name: string;
 }
 
-async function send<T>(url: string, init?: { method: string; body: unknown; key?: string }): Promise<T> {
-  let res: Response;
-  try {
-    res = await fetch(url, {
-      credentials: "same-origin",
-      method: init?.method ?? "GET",
-      headers: {
-        accept: "application/json",
-        ...(init ? { "content-type": "application/json" } : {}),
-        ...(init?.key ? { "idempotency-key": init.key } : {}),
-      },
-      body: init ? JSON.stringify(init.body) : undefined,
-    });
-  } catch {
-    throw new ApiError(0, "NETWORK", "The server could not be reached. Check the connection and try again.");
-  }
-  const body: unknown = await res.json().catch(() => null);
-  if (!res.ok) {
-    const e = (body as { error?: { code?: string; message?: string; details?: { fields?: Record<string, string[]> } } } | null)?.error;
-    throw new ApiError(res.status, e?.code ?? "HTTP_ERROR", e?.message ?? `The server answered ${res.status}.`, e?.details?.fields ?? {});
-  }
-  return body as T;
-}
+const send = <T,>(url: string, init?: { method: string; body: unknown; key?: string }): Promise<T> =>
+  apiFetch<T>(url, init ? jsonInit(init.method, init.body, init.key ? { "idempotency-key": init.key } : {}) : undefined);
 
 const transferKeys = { kitchen: (code: string) => ["transfer-requests", code.toUpperCase()] as const };
 
