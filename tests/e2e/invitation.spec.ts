@@ -2,9 +2,9 @@
 // the local mail catcher; the admin reads it on the captured-mail page; the new buyer follows the
 // link, chooses a password and lands in the app with a buyer's navigation. The second company's
 // admin sees none of it.
-import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Browser, type Page } from "@playwright/test";
 import { closeDb } from "../../db/client";
+import { seriousViolations, signedInPage } from "./support";
 import { createCompany, uniqueEmail, type TestCompany } from "../support/factory";
 
 let a: TestCompany;
@@ -17,20 +17,7 @@ test.afterAll(async () => {
   await closeDb();
 });
 
-async function signedInPage(browser: Browser, email: string, password: string): Promise<Page> {
-  const page = await (await browser.newContext()).newPage();
-  await page.goto("/sign-in");
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(password);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).toHaveURL(/\/stock$/);
-  return page;
-}
 
-async function serious(page: Page) {
-  const { violations } = await new AxeBuilder({ page }).analyze();
-  return violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => `${v.id}: ${v.help}`);
-}
 
 test("an invited buyer joins through the e-mailed link; the other company never sees the mail", async ({ browser }) => {
   const invitee = uniqueEmail("new-buyer");
@@ -41,7 +28,7 @@ test("an invited buyer joins through the e-mailed link; the other company never 
   await admin.getByRole("button", { name: "Invite someone" }).click();
   const sheet = admin.getByRole("dialog", { name: "Invite someone" });
   await expect(sheet).toBeVisible();
-  expect(await serious(admin)).toEqual([]);
+  expect(await seriousViolations(admin)).toEqual([]);
   await sheet.getByLabel("E-mail").fill(invitee);
   await sheet.getByLabel("Name").fill("Nell Brackett");
   await sheet.getByLabel("Role").selectOption("buyer");
@@ -57,7 +44,7 @@ test("an invited buyer joins through the e-mailed link; the other company never 
     await admin.reload();
     await expect(admin.getByRole("heading", { name: subject })).toBeVisible({ timeout: 1000 });
   }).toPass({ timeout: 20_000 });
-  expect(await serious(admin)).toEqual([]);
+  expect(await seriousViolations(admin)).toEqual([]);
   await admin.getByText("Show message").first().click();
   const link = await admin.getByRole("link", { name: /\/invitation\// }).first().getAttribute("href");
   expect(link).toMatch(/\/invitation\/[A-Za-z0-9_-]{20,}$/);
@@ -77,7 +64,7 @@ test("an invited buyer joins through the e-mailed link; the other company never 
   const joiner = await (await browser.newContext()).newPage();
   await joiner.goto(new URL(link!).pathname);
   await expect(joiner.getByText(a.company.name).first()).toBeVisible();
-  expect(await serious(joiner)).toEqual([]);
+  expect(await seriousViolations(joiner)).toEqual([]);
   await joiner.getByLabel("Choose a password").fill("a-long-new-password");
   await joiner.getByLabel("Password again").fill("a-long-new-password");
   await joiner.getByRole("button", { name: /join|create|accept|set/i }).click();

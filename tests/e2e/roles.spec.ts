@@ -1,11 +1,11 @@
 // Story: each person signs in through the page and finds the navigation of their own job.
 // Accessibility is checked with axe (no serious or critical violations) on the sign-in page and
 // the signed-in shell; a 1024 x 768 screenshot of each role's first page is kept for review.
-import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
 import { ROLES, type Role } from "../../db/types";
 import { createCompany, type TestCompany } from "../support/factory";
 import { closeDb } from "../../db/client";
+import { seriousViolations, signIn } from "./support";
 
 const NAV: Record<Role, string[]> = {
   admin: ["Stock", "Planning", "Buying", "Reports", "Settings"],
@@ -23,19 +23,7 @@ test.afterAll(async () => {
   await closeDb();
 });
 
-async function seriousViolations(page: Page) {
-  const results = await new AxeBuilder({ page }).analyze();
-  return results.violations
-    .filter((v) => v.impact === "serious" || v.impact === "critical")
-    .map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(" ")).join(", ")})`);
-}
 
-async function signIn(page: Page, email: string, password: string) {
-  await page.goto("/sign-in");
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(password);
-  await page.getByRole("button", { name: "Sign in" }).click();
-}
 
 test("the sign-in page has no serious accessibility problems and refuses a wrong password", async ({ page }) => {
   await page.goto("/sign-in");

@@ -2,9 +2,9 @@
 // a kitchen lead asks another kitchen for stock on the transfers page, that kitchen's lead fulfils
 // it, and the asking kitchen's stock shows it. No serious accessibility problems on the transfers
 // page or the open sheets; a 1024 x 768 screenshot of the transfers page is kept for review.
-import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Browser, type Page } from "@playwright/test";
 import { closeDb } from "../../db/client";
+import { gridCell, seriousViolations, signedInPage } from "./support";
 import { createCompany, createUser, type TestCompany, type TestUser } from "../support/factory";
 import { createItem, type TestItem } from "../support/stock";
 
@@ -19,7 +19,7 @@ test.beforeAll(async ({ browser }) => {
   lead2 = await createUser(co.company.id, "kitchen_lead", { kitchenIds: [k2.id] });
   pepper = await createItem(co.company.id, { category: "spice" });
   paprika = await createItem(co.company.id, { category: "spice" });
-  const manager = await signedInPage(browser, co.users.manager.email);
+  const manager = await signedInPage(browser, co.users.manager.email, co.password);
   const receipts = [
     { kitchen: k1.code, item: pepper.sku, quantity: "500", unit: "g", lot: { unitCost: "0.03" } },
     { kitchen: k2.code, item: paprika.sku, quantity: "300", unit: "g", lot: { unitCost: "0.02" } },
@@ -34,34 +34,14 @@ test.afterAll(async () => {
   await closeDb();
 });
 
-async function signedInPage(browser: Browser, email: string, kitchenId?: string): Promise<Page> {
-  const page = await (await browser.newContext({ viewport: { width: 1024, height: 768 } })).newPage();
-  await page.goto("/sign-in");
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(co.password);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).toHaveURL(/\/stock$/);
-  if (kitchenId) {
-    // work in this kitchen, as the kitchen switcher would choose it
-    await page.context().addCookies([{ name: "hl_kitchen", value: kitchenId, url: page.url() }]);
-    await page.reload();
-  }
-  return page;
-}
 
-async function serious(page: Page) {
-  const { violations } = await new AxeBuilder({ page }).analyze();
-  return violations
-    .filter((v) => v.impact === "serious" || v.impact === "critical")
-    .map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(" ")).join(", ")})`);
-}
 
-const cell = (page: Page, rowId: string, colId: string) => page.locator(`.ag-row[row-id="${rowId}"] [col-id="${colId}"]`);
+const cell = gridCell;
 
 test("a manager records waste of a spice from the grid and on hand drops", async ({ browser }) => {
   test.setTimeout(90_000);
   const k1 = co.kitchens[0]!;
-  const page = await signedInPage(browser, co.users.manager.email, k1.id);
+  const page = await signedInPage(browser, co.users.manager.email, co.password, k1.id);
   await expect(page.getByRole("heading", { level: 1 })).toContainText(k1.name);
   const row = `item:${pepper.id}`;
   await expect(cell(page, row, "onHand")).toContainText("500 g");
@@ -70,7 +50,7 @@ test("a manager records waste of a spice from the grid and on hand drops", async
   const sheet = page.getByRole("dialog", { name: `Record for ${pepper.sku}` });
   await expect(sheet).toBeVisible();
   await expect(sheet.getByRole("radio", { name: "Waste" })).toBeChecked();
-  expect(await serious(page)).toEqual([]);
+  expect(await seriousViolations(page)).toEqual([]);
 
   // waste needs a reason: the server's field message appears beside the field
   await sheet.getByLabel("Quantity").fill("0.1");
@@ -103,7 +83,7 @@ test("a kitchen lead asks another kitchen for stock, its lead fulfils it and the
   const [k1, k2] = [co.kitchens[0]!, co.kitchens[1]!];
 
   // the asking kitchen's lead
-  const asker = await signedInPage(browser, co.users.kitchen_lead.email);
+  const asker = await signedInPage(browser, co.users.kitchen_lead.email, co.password);
   await expect(asker.getByRole("heading", { level: 1 })).toContainText(k1.name);
   await asker.getByRole("link", { name: "Transfers" }).click();
   await expect(asker).toHaveURL(/\/stock\/transfers$/);
@@ -118,17 +98,17 @@ test("a kitchen lead asks another kitchen for stock, its lead fulfils it and the
   await ask.getByLabel("Unit").selectOption("g");
   await expect(ask.getByLabel("Kitchen to ask")).toHaveValue(k2.code);
   await ask.getByLabel("Note (optional)").fill("For Saturday's chorizo");
-  expect(await serious(asker)).toEqual([]);
+  expect(await seriousViolations(asker)).toEqual([]);
   await ask.getByRole("button", { name: "Send request" }).click();
   await expect(ask).toBeHidden();
   await expect(asker.getByRole("status").filter({ hasText: "Asked" })).toContainText(`120 g of ${paprika.sku}`);
   const mine = asker.getByRole("table", { name: "Requests this kitchen made of other kitchens" });
   await expect(mine.getByRole("row", { name: new RegExp(paprika.sku) })).toContainText("Open");
-  expect(await serious(asker)).toEqual([]);
+  expect(await seriousViolations(asker)).toEqual([]);
   await asker.screenshot({ path: "tests/e2e/screenshots/stock-transfers.png" });
 
   // the sending kitchen's lead fulfils it
-  const sender = await signedInPage(browser, lead2.email);
+  const sender = await signedInPage(browser, lead2.email, co.password);
   await expect(sender.getByRole("heading", { level: 1 })).toContainText(k2.name);
   await sender.goto("/stock/transfers");
   const asked = sender.getByRole("table", { name: "Open requests other kitchens made of this kitchen" });
@@ -136,7 +116,7 @@ test("a kitchen lead asks another kitchen for stock, its lead fulfils it and the
   await expect(line).toContainText("120 g");
   await expect(line).toContainText(k1.name);
   await expect(line).toContainText("For Saturday's chorizo");
-  expect(await serious(sender)).toEqual([]);
+  expect(await seriousViolations(sender)).toEqual([]);
   await line.getByRole("button", { name: `Fulfil ${paprika.sku} for ${k1.name}` }).click();
   await expect(sender.getByRole("status").filter({ hasText: "Sent" })).toContainText(`120 g of ${paprika.sku}`);
   await expect(sender.getByText("No open requests from other kitchens.")).toBeVisible();

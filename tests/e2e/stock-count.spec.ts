@@ -2,10 +2,10 @@
 // grid, sees the cure marked and its lot in date, types two counts from the keyboard, undoes a
 // slip, posts the count and sees the on-hand figures become the counted ones. The grid has no
 // serious accessibility problems; a 1024 x 768 screenshot is kept for review.
-import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Browser, type Page } from "@playwright/test";
 import { readFile } from "node:fs/promises";
 import { closeDb } from "../../db/client";
+import { gridCell, seriousViolations, signedInPage } from "./support";
 import { createCompany, type TestCompany } from "../support/factory";
 import { createItem, type TestItem } from "../support/stock";
 
@@ -22,7 +22,7 @@ test.beforeAll(async ({ browser }) => {
   casing = await createItem(co.company.id, { category: "casing" });
   cure = await createItem(co.company.id, { category: "cure" });
   pepper = await createItem(co.company.id, { category: "spice" });
-  const manager = await signedInPage(browser, co.users.manager.email);
+  const manager = await signedInPage(browser, co.users.manager.email, co.password);
   const receipts = [
     { item: casing.sku, quantity: "3", unit: "hank", lot: { unitCost: "28.50" } },
     { item: cure.sku, quantity: "1000", unit: "g", lot: { code: "PINK-0425", date: inDays(200), dateKind: "best_before", unitCost: "0.012" } },
@@ -38,31 +38,15 @@ test.afterAll(async () => {
   await closeDb();
 });
 
-async function signedInPage(browser: Browser, email: string): Promise<Page> {
-  const page = await (await browser.newContext({ viewport: { width: 1024, height: 768 } })).newPage();
-  await page.goto("/sign-in");
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(co.password);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).toHaveURL(/\/stock$/);
-  return page;
-}
 
-async function serious(page: Page) {
-  const { violations } = await new AxeBuilder({ page }).analyze();
-  return violations
-    .filter((v) => v.impact === "serious" || v.impact === "critical")
-    .map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(" ")).join(", ")})`);
-}
 
-/** One cell of the grid, by row id and column id (pinned and centre parts are separate rows). */
-const cell = (page: Page, rowId: string, colId: string) => page.locator(`.ag-row[row-id="${rowId}"] [col-id="${colId}"]`);
+const cell = gridCell;
 
 test("a kitchen lead counts two items in the grid, posts the count and sees on hand follow", async ({ browser }) => {
   test.setTimeout(90_000);
   const kitchen = co.kitchens[0]!;
 
-  const lead = await signedInPage(browser, co.users.kitchen_lead.email);
+  const lead = await signedInPage(browser, co.users.kitchen_lead.email, co.password);
   await expect(lead.getByRole("heading", { level: 1 })).toContainText(kitchen.name);
   const casingRow = `item:${casing.id}`;
   const pepperRow = `item:${pepper.id}`;
@@ -88,7 +72,7 @@ test("a kitchen lead counts two items in the grid, posts the count and sees on h
   await expect(lotRow).toContainText("best before");
   await expect(lotRow).toContainText("in date");
 
-  expect(await serious(lead)).toEqual([]);
+  expect(await seriousViolations(lead)).toEqual([]);
 
   // counts from the keyboard: a tap (or click) opens the casing's cell, Enter keeps the value and
   // moves down; arrows reach the pepper, typing starts the edit
@@ -176,7 +160,7 @@ test("a kitchen lead counts two items in the grid, posts the count and sees on h
   await expect(sheet.getByRole("listitem").first()).toContainText("Counted");
   await expect(sheet.getByRole("listitem").first()).toContainText("−20 g");
   await expect(sheet.getByRole("listitem").nth(1)).toContainText("Received");
-  expect(await serious(lead)).toEqual([]);
+  expect(await seriousViolations(lead)).toEqual([]);
   await sheet.getByRole("button", { name: "Close" }).click();
   await expect(sheet).toBeHidden();
 
@@ -201,14 +185,14 @@ test("a kitchen lead counts two items in the grid, posts the count and sees on h
 });
 
 test("the printable count sheet lists every item and lot with an empty box", async ({ browser }) => {
-  const lead = await signedInPage(browser, co.users.kitchen_lead.email);
+  const lead = await signedInPage(browser, co.users.kitchen_lead.email, co.password);
   await lead.getByRole("link", { name: "Count sheet" }).click();
   await expect(lead.getByRole("heading", { level: 1 })).toContainText("Count sheet");
   const table = lead.getByRole("table", { name: /Count sheet of/ });
   for (const sku of [casing.sku, cure.sku, pepper.sku]) await expect(table.getByText(sku).first()).toBeVisible();
   await expect(table.getByText("PINK-0425")).toBeVisible();
   await expect(lead.getByRole("button", { name: "Print" })).toBeVisible();
-  expect(await serious(lead)).toEqual([]);
+  expect(await seriousViolations(lead)).toEqual([]);
   // printed: no rail, no header, no buttons
   await lead.emulateMedia({ media: "print" });
   await expect(lead.getByRole("navigation", { name: "Main" })).toBeHidden();
