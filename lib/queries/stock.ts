@@ -3,6 +3,7 @@
 // the server's code, message and per-field messages, so callers can name the line that failed.
 import type { Movement } from "@/lib/data/ledger";
 import type { KitchenStock } from "@/lib/data/stock";
+import type { StockLevel } from "@/lib/data/stock-levels";
 
 export const stockKeys = {
   all: ["stock"] as const,
@@ -73,14 +74,7 @@ export interface StockLevelInput {
   reorderPoint: string | null;
 }
 
-export interface StockLevel {
-  kitchen: string;
-  itemId: string;
-  sku: string;
-  unit: string;
-  parLevel: string | null;
-  reorderPoint: string | null;
-}
+export type { StockLevel } from "@/lib/data/stock-levels";
 
 /** PUT /api/stock-levels (values in the item's stock unit). */
 export const putStockLevel = (body: StockLevelInput) => send<StockLevel>("/api/stock-levels", json("PUT", body));
