@@ -49,7 +49,9 @@ vitest_dirs=()
 has unit && vitest_dirs+=(tests/unit)
 has integration && vitest_dirs+=(tests/integration)
 if [ ${#vitest_dirs[@]} -gt 0 ]; then
-  node node_modules/vitest/vitest.mjs run "${vitest_dirs[@]}" "${filters[@]}"
+  # with filters, only the files they name run (a folder would match every file in it)
+  if [ ${#filters[@]} -gt 0 ]; then node node_modules/vitest/vitest.mjs run "${filters[@]}"
+  else node node_modules/vitest/vitest.mjs run "${vitest_dirs[@]}"; fi
 fi
 
 if has bench; then

@@ -1,9 +1,10 @@
 // The caution shown wherever cure is (trade-facts §9): nitrite is toxic in overdose, cure is kept
 // labelled and apart, and the product's limits are planning defaults under local rules.
+// The text lives in lib/cure (the cure calculator's API returns it too).
 import { TriangleAlert } from "lucide-react";
+import { CURE_CAUTION } from "@/lib/cure/caution";
 
-export const CURE_CAUTION =
-  "Curing salt is toxic in overdose. Keep it labelled and apart from salt and spices. Local regulation, your HACCP plan and licensed practice govern; the limits here are planning defaults.";
+export { CURE_CAUTION };
 
 export function CureCaution({ className = "" }: { className?: string }) {
   return (

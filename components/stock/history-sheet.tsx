@@ -5,6 +5,7 @@
 import { useInfiniteQuery } from "@tanstack/react-query";
 import { AlertCircle, Loader2 } from "lucide-react";
 import type { Movement } from "@/lib/data/ledger";
+import type { MovementEntry } from "@/lib/data/movements";
 import type { StockLot, StockRow } from "@/lib/data/stock";
 import { fetchMovements, stockKeys } from "@/lib/queries/stock";
 import { dec, type UnitSystem } from "@/lib/units";
@@ -28,6 +29,13 @@ function kindWords(m: Movement): string {
     case "count": return "Counted";
     case "transfer": return positive ? `Transfer in from ${m.otherKitchen?.code ?? "another kitchen"}` : `Transfer out to ${m.otherKitchen?.code ?? "another kitchen"}`;
   }
+}
+
+/** Who posted it: "you", the person's name, or words for a user no longer known and for none. */
+function byWhom(m: MovementEntry, currentUserId: string): string {
+  if (m.userId === null) return "the system";
+  if (m.userId === currentUserId) return "you";
+  return m.userName ?? "a former user";
 }
 
 function deltaText(m: Movement, item: StockRow, system: UnitSystem): string {
@@ -113,7 +121,7 @@ function MovementList({ kitchen, item, lot, unitSystem, timeZone, currentUserId 
                 <time dateTime={m.occurredAt}>{when.format(new Date(m.occurredAt))}</time>
                 {!lot ? ` · lot ${m.lot.code}` : ""}
                 {m.kind === "count" && m.counted !== null ? ` · counted ${stockUnitText(dec(m.counted).toFixed(), item)}` : ""}
-                {` · by ${m.userId === currentUserId ? "you" : m.userId ? `user ${m.userId.slice(0, 8)}` : "the system"}`}
+                {` · by ${byWhom(m, currentUserId)}`}
               </p>
               {m.reason ? <p className="mt-0.5 text-sm text-pepper-soft">{m.reason}</p> : null}
             </li>

@@ -13,7 +13,7 @@
 import type { Knex } from "knex";
 import { db } from "../client";
 import type { CurrentUser } from "../../lib/auth/current-user";
-import { createItem } from "../../lib/data/items";
+import { createItem, getItem } from "../../lib/data/items";
 import { postCount, postMovement, reverseMovement } from "../../lib/data/ledger";
 import { setStockLevel } from "../../lib/data/stock-levels";
 import { loadCurrentUser } from "../../lib/data/users";
@@ -33,6 +33,42 @@ export interface DemoStockSummary {
   ms: number;
 }
 
+/** The demo users who do the work: the first active user of each role, by e-mail. */
+const firstActive = (knex: Knex, companyId: string, role: string) =>
+  knex("app_users").where({ company_id: companyId, role }).whereNull("disabled_at").orderBy("email").first<{ id: string } | undefined>("id");
+
+/**
+ * Why the demo stock cannot be posted into this company as it stands (empty when it can): its plan
+ * needs the demo kitchens, an active buyer, manager and kitchen lead (the lead working at the Yard),
+ * and any demo SKU already there must be the same kind of item. A demo company changed by hand
+ * since it was loaded is left alone rather than half-filled.
+ */
+export async function demoStockBlockers(knex: Knex, companyId: string): Promise<string[]> {
+  const out: string[] = [];
+  const kitchens: { id: string; code: string; archived_at: Date | null }[] = await knex("kitchens").where({ company_id: companyId }).whereIn("code", KITCHEN_CODES).select("id", "code", "archived_at");
+  for (const code of KITCHEN_CODES) {
+    const k = kitchens.find((x) => x.code === code);
+    if (!k) out.push(`kitchen ${code} is missing`);
+    else if (k.archived_at) out.push(`kitchen ${code} is archived`);
+  }
+  for (const role of ["buyer", "manager", "kitchen_lead"]) {
+    if (!(await firstActive(knex, companyId, role))) out.push(`no active ${role.replace("_", " ")}`);
+  }
+  const lead = await firstActive(knex, companyId, "kitchen_lead");
+  const yard = kitchens.find((k) => k.code === "YARD");
+  if (lead && yard && !(await knex("user_kitchens").where({ user_id: lead.id, kitchen_id: yard.id }).first("kitchen_id"))) {
+    out.push("the kitchen lead does not work at YARD");
+  }
+  const existing: { sku: string; category: string; stock_unit: string; track_lots: boolean; archived_at: Date | null }[] = await knex("items")
+    .where({ company_id: companyId }).whereIn("sku", DEMO_ITEMS.map((d) => d.draft.sku)).select("sku", "category", "stock_unit", "track_lots", "archived_at");
+  for (const row of existing) {
+    const d = DEMO_ITEMS.find((x) => x.draft.sku === row.sku)!.draft;
+    const same = row.category === d.category && row.stock_unit === d.unit && (d.trackLots === undefined || row.track_lots === d.trackLots) && !row.archived_at;
+    if (!same) out.push(`item ${row.sku} is not the demo's`);
+  }
+  return out;
+}
+
 export async function loadDemoStock(knex: Knex, companyId: string): Promise<DemoStockSummary> {
   const started = performance.now();
   if (!(await db()("companies").where({ id: companyId }).first("id"))) {
@@ -42,16 +78,17 @@ export async function loadDemoStock(knex: Knex, companyId: string): Promise<Demo
 
   // the demo users who do the work
   const byRole = async (role: string): Promise<CurrentUser> => {
-    const row: { id: string } | undefined = await knex("app_users").where({ company_id: companyId, role }).whereNull("disabled_at").orderBy("email").first("id");
+    const row = await firstActive(knex, companyId, role);
     const user = row && (await loadCurrentUser(row.id));
     if (!user) throw new Error(`The demo company has no active ${role}.`);
     return user;
   };
   const actors: Record<Who, CurrentUser> = { buyer: await byRole("buyer"), manager: await byRole("manager"), lead: await byRole("kitchen_lead") };
 
-  // the catalogue, as the buyer enters it
+  // the catalogue, as the buyer enters it (an item already entered by an earlier, interrupted load is kept)
+  const entered = new Set<string>(await knex("items").where({ company_id: companyId }).whereIn("sku", DEMO_ITEMS.map((d) => d.draft.sku)).pluck("sku"));
   const items: PlanItem[] = await Promise.all(DEMO_ITEMS.map(async (d) => {
-    const item = await createItem(actors.buyer, d.draft);
+    const item = entered.has(d.draft.sku) ? await getItem(actors.buyer, d.draft.sku) : await createItem(actors.buyer, d.draft);
     const capacity = item.casing?.capacityKgPerPutUp ?? d.kgPerPiece ?? null;
     return {
       demo: d, sku: item.sku, category: item.category, stockUnit: item.stockUnit, trackLots: item.trackLots, units: item.itemUnits,

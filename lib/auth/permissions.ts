@@ -23,6 +23,7 @@ export type Action =
   | "transfers.fulfil"
   // planning and production
   | "planning.read"
+  | "recipes.manage" // the company's recipes (versioned)
   | "planning.manage" // plans and reservations
   | "production.post"
   | "limits.override"
@@ -60,6 +61,7 @@ export const MATRIX: Record<Action, Record<Role, Reach>> = {
   // ctx.kitchenId is the kitchen the goods leave
   "transfers.fulfil":  { admin: ALL, manager: ALL, buyer: "none", kitchen_lead: OWN, accountant: "none" },
   "planning.read":     { admin: ALL, manager: ALL, buyer: "none", kitchen_lead: ALL, accountant: ALL },
+  "recipes.manage":    { admin: ALL, manager: ALL, buyer: "none", kitchen_lead: ALL, accountant: "none" },
   "planning.manage":   { admin: ALL, manager: ALL, buyer: "none", kitchen_lead: OWN, accountant: "none" },
   "production.post":   { admin: ALL, manager: ALL, buyer: "none", kitchen_lead: OWN, accountant: "none" },
   "limits.override":   { admin: ALL, manager: ALL, buyer: "none", kitchen_lead: "none", accountant: "none" },

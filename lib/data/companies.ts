@@ -4,7 +4,9 @@ import { db } from "../../db/client";
 import type { CompanyRow } from "../../db/types";
 import { assertCan } from "../auth/assert";
 import type { CurrentUser } from "../auth/current-user";
-import type { companyUpdateInput } from "../validation/company";
+import type { RegulatoryTable } from "../cure/limits";
+import { plain } from "../units";
+import type { companyCureSettingsInput, companyUpdateInput } from "../validation/company";
 
 export interface Company {
   id: string;
@@ -27,4 +29,34 @@ export async function updateCompany(actor: CurrentUser, input: z.infer<typeof co
     .update({ name: input.name, time_zone: input.timeZone, currency: input.currency })
     .returning<CompanyRow[]>("*");
   return toCompany(row!);
+}
+
+/** What the cure calculator takes from the company (columns of companies, see the migration). */
+export interface CureSettings {
+  /** the table the calculator checks against unless a calculation names another */
+  regulatoryTable: RegulatoryTable;
+  /** kitchen scale resolution in grams: cure quantities are rounded to it toward compliance */
+  scaleResolutionG: string;
+}
+
+interface CureSettingsRow {
+  regulatory_table: RegulatoryTable;
+  scale_resolution_g: string;
+}
+
+const toCureSettings = (r: CureSettingsRow): CureSettings => ({ regulatoryTable: r.regulatory_table, scaleResolutionG: plain(r.scale_resolution_g) });
+
+/** Every signed-in user of the company may read them (the calculator needs them). */
+export async function getCureSettings(actor: CurrentUser): Promise<CureSettings> {
+  const row: CureSettingsRow = await db()("companies").where({ id: actor.companyId }).first("regulatory_table", "scale_resolution_g");
+  return toCureSettings(row);
+}
+
+export async function updateCureSettings(actor: CurrentUser, input: z.infer<typeof companyCureSettingsInput>): Promise<CureSettings> {
+  assertCan(actor, "company.manage");
+  const [row] = await db()("companies")
+    .where({ id: actor.companyId })
+    .update({ regulatory_table: input.regulatoryTable, scale_resolution_g: input.scaleResolutionG })
+    .returning<CureSettingsRow[]>(["regulatory_table", "scale_resolution_g"]);
+  return toCureSettings(row!);
 }

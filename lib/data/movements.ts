@@ -1,4 +1,5 @@
-// Reading the ledger: filtered, newest first, in pages (keyset on occurred_at, id).
+// Reading the ledger: filtered, newest first, in pages (keyset on occurred_at, id), each movement
+// with the name of the person who posted it.
 import "server-only";
 import type { z } from "zod";
 import { db } from "../../db/client";
@@ -10,7 +11,23 @@ import type { movementsQuery } from "../validation/stock";
 import { describeMovements, type Movement } from "./ledger";
 import { loadItemForLedger } from "./items-for-ledger";
 
-export async function listMovements(actor: CurrentUser, f: z.infer<typeof movementsQuery>): Promise<{ movements: Movement[]; nextCursor: string | null }> {
+/** A movement as the history shows it: who posted it, by name. */
+export interface MovementEntry extends Movement {
+  /** null when no person is recorded (userId null) or the user is not (or no longer) in the company. */
+  userName: string | null;
+}
+
+/** The names of the people who posted `movements`, looked up in the actor's company only. */
+async function withUserNames(companyId: string, movements: Movement[]): Promise<MovementEntry[]> {
+  const ids = [...new Set(movements.map((m) => m.userId).filter((x): x is string => x !== null))];
+  const users = ids.length
+    ? await db()("app_users").where({ company_id: companyId }).whereIn("id", ids).select<{ id: string; name: string }[]>("id", "name")
+    : [];
+  const names = new Map(users.map((u) => [u.id, u.name]));
+  return movements.map((m) => ({ ...m, userName: m.userId ? (names.get(m.userId) ?? null) : null }));
+}
+
+export async function listMovements(actor: CurrentUser, f: z.infer<typeof movementsQuery>): Promise<{ movements: MovementEntry[]; nextCursor: string | null }> {
   assertCan(actor, "stock.read");
   const q = db()("stock_movements").where({ company_id: actor.companyId });
   if (f.kitchen) {
@@ -32,15 +49,18 @@ export async function listMovements(actor: CurrentUser, f: z.infer<typeof moveme
   const page = rows.slice(0, f.limit);
   const last = page.at(-1);
   return {
-    movements: await describeMovements(actor.companyId, page),
+    movements: await withUserNames(actor.companyId, await describeMovements(actor.companyId, page)),
     nextCursor: rows.length > f.limit && last ? `${new Date(last.occurred_at).toISOString()}|${last.id}` : null,
   };
 }
 
-const CSV_COLUMNS = ["occurredAt", "kind", "kitchen", "otherKitchen", "sku", "item", "lot", "delta", "unit", "counted", "enteredQuantity", "enteredUnit", "unitCost", "reason", "reversesId", "id"] as const;
+const CSV_COLUMNS = ["occurredAt", "kind", "kitchen", "otherKitchen", "sku", "item", "lot", "delta", "unit", "counted", "enteredQuantity", "enteredUnit", "unitCost", "reason", "reversesId", "id", "user"] as const;
+
+/** Who posted a movement, for the CSV: the name; "former user" when unknown here; empty when none is recorded. */
+const userCell = (m: MovementEntry) => m.userName ?? (m.userId ? "former user" : "");
 
 /** RFC 4180 CSV; cells that a spreadsheet would run as a formula are prefixed with '. */
-export function movementsCsv(movements: Movement[]): string {
+export function movementsCsv(movements: MovementEntry[]): string {
   const cell = (v: string | null) => {
     let s = v ?? "";
     if (/^[=+\-@\t\r]/.test(s) && !/^-?\d/.test(s)) s = `'${s}`;
@@ -48,6 +68,6 @@ export function movementsCsv(movements: Movement[]): string {
   };
   const lines = movements.map((m) =>
     [m.occurredAt, m.kind, m.kitchen.code, m.otherKitchen?.code ?? "", m.item.sku, m.item.name, m.lot.code, m.delta, m.item.unit, m.counted,
-      m.enteredQuantity, m.enteredUnit, m.unitCost, m.reason, m.reversesId, m.id].map(cell).join(","));
+      m.enteredQuantity, m.enteredUnit, m.unitCost, m.reason, m.reversesId, m.id, userCell(m)].map(cell).join(","));
   return [CSV_COLUMNS.join(","), ...lines].join("\r\n") + "\r\n";
 }

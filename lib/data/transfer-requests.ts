@@ -1,17 +1,21 @@
 // Transfer requests between kitchens of one company: asked by the receiving kitchen, fulfilled
-// (the transfer posted in the same transaction) or declined by the sending one.
+// (the transfer posted in the same transaction) or declined by the sending one. The sending
+// kitchen may send a lot of its choosing; without one the ledger draws first-expired-first-out,
+// and lotChoices shows beforehand which lots that draw would take.
 import "server-only";
 import { randomUUID } from "node:crypto";
+import type { Knex } from "knex";
 import type { z } from "zod";
 import { db } from "../../db/client";
-import type { KitchenRow } from "../../db/types";
+import type { DateKind, KitchenRow } from "../../db/types";
 import { assertCan } from "../auth/assert";
 import type { CurrentUser } from "../auth/current-user";
-import { conflict, notFound, validation } from "../http/errors";
-import { plain, toStockUnits, toStored, UnitError, dec } from "../units";
+import { AppError, conflict, notFound, validation } from "../http/errors";
+import { Dec, plain, toStockUnits, toStored, UnitError, dec } from "../units";
 import type { transferRequestInput, transferRequestsQuery } from "../validation/movements";
 import { loadItemForLedger } from "./items-for-ledger";
 import { describeMovements, inTransaction, postInTransaction, type Movement } from "./ledger";
+import type { StockRow } from "./stock";
 
 export interface TransferRequest {
   id: string;
@@ -97,7 +101,105 @@ export async function listTransferRequests(actor: CurrentUser, f: z.infer<typeof
   return (await q).map(toRequest);
 }
 
-/** Posts the transfer and closes the request in one transaction; a shortfall leaves it open. */
+/** A lot the sending kitchen could send: it has stock available there. */
+export interface TransferLotChoice {
+  lotId: string;
+  code: string;
+  date: string | null;
+  dateKind: DateKind | null;
+  receivedOn: string;
+  /** Days from the company's today to the date; negative once expired, null when undated. */
+  daysLeft: number | null;
+  expired: boolean;
+  /** On hand minus reserved in the sending kitchen, stock unit. */
+  available: string;
+}
+
+export interface TransferLotChoices {
+  item: Pick<StockRow, "sku" | "name" | "unit" | "trackLots" | "trackDates" | "casing"> & { id: string; cure: boolean };
+  /** The sending kitchen. */
+  kitchen: { id: string; code: string };
+  /** The company's date, by which expiry is judged (yyyy-mm-dd). */
+  today: string;
+  /** In the order the ledger draws them: dated lots by date, then undated ones by receipt. */
+  lots: TransferLotChoice[];
+  /** What fulfilling without a lot would send now: expired lots are skipped. */
+  fefo: { takes: { lotId: string; code: string; quantity: string }[]; short: string };
+}
+
+interface ChoiceRow {
+  lot_id: string; code: string; date: string | null; date_kind: DateKind | null; received_on: string; available: string; days_left: number | null; today: string;
+}
+
+/**
+ * The sending kitchen's lots of the requested item with stock available, and the lots a draw
+ * without a named lot would take (the same order and expiry rule as the ledger's own draw).
+ */
+export async function lotChoices(actor: CurrentUser, id: string): Promise<TransferLotChoices> {
+  const request = await getRequest(actor, id);
+  assertCan(actor, "stock.read", { kitchenId: request.fromKitchen.id });
+  const item = await db()("items").where({ company_id: actor.companyId, id: request.item.id })
+    .first<{ id: string; sku: string; name: string; category: string; stock_unit: StockRow["unit"]; track_lots: boolean; track_dates: boolean;
+      casing_kind: string | null; calibre_min_mm: string | null; calibre_max_mm: string | null; put_up: string | null; put_up_metres: string | null }>(
+      "id", "sku", "name", "category", "stock_unit", "track_lots", "track_dates", "casing_kind",
+      db().raw("trim_scale(calibre_min_mm)::text as calibre_min_mm"), db().raw("trim_scale(calibre_max_mm)::text as calibre_max_mm"),
+      "put_up", db().raw("trim_scale(put_up_metres)::text as put_up_metres"),
+    );
+  const r = await db().raw<{ rows: ChoiceRow[] }>(
+    `with today as (select (now() at time zone time_zone)::date as d from companies where id = :company)
+     select b.lot_id, l.code, to_char(l.date, 'YYYY-MM-DD') as date, l.date_kind, to_char(l.received_on, 'YYYY-MM-DD') as received_on,
+            trim_scale(b.on_hand - b.reserved)::text as available, (l.date - today.d)::int as days_left, to_char(today.d, 'YYYY-MM-DD') as today
+       from stock_balances b join lots l on l.id = b.lot_id cross join today
+      where b.company_id = :company and b.kitchen_id = :kitchen and b.item_id = :item and b.on_hand - b.reserved > 0
+      order by l.date is null, l.date, l.received_on, l.created_at, l.id`,
+    { company: actor.companyId, kitchen: request.fromKitchen.id, item: request.item.id },
+  );
+  const today = r.rows[0]?.today
+    ?? (await db().raw<{ rows: { today: string }[] }>("select to_char((now() at time zone time_zone)::date, 'YYYY-MM-DD') as today from companies where id = ?", [actor.companyId])).rows[0]!.today;
+  const lots: TransferLotChoice[] = r.rows.map((l) => ({
+    lotId: l.lot_id, code: l.code, date: l.date, dateKind: l.date_kind, receivedOn: l.received_on,
+    daysLeft: l.days_left, expired: l.days_left !== null && l.days_left < 0, available: l.available,
+  }));
+  const takes: TransferLotChoices["fefo"]["takes"] = [];
+  let left = dec(request.quantity);
+  for (const l of lots) {
+    if (left.lte(0)) break;
+    if (l.expired) continue;
+    const take = Dec.min(dec(l.available), left);
+    takes.push({ lotId: l.lotId, code: l.code, quantity: plain(take) });
+    left = left.minus(take);
+  }
+  return {
+    item: {
+      id: item!.id, sku: item!.sku, name: item!.name, unit: item!.stock_unit, trackLots: item!.track_lots, trackDates: item!.track_dates,
+      casing: item!.category === "casing" && item!.casing_kind
+        ? { kind: item!.casing_kind, calibreMinMm: item!.calibre_min_mm!, calibreMaxMm: item!.calibre_max_mm!, putUp: item!.put_up, metresPerPutUp: item!.put_up_metres }
+        : null,
+      cure: item!.category === "cure",
+    },
+    kitchen: { id: request.fromKitchen.id, code: request.fromKitchen.code },
+    today,
+    lots,
+    fefo: { takes, short: plain(Dec.max(left, dec("0"))) },
+  };
+}
+
+/**
+ * A lot named for the transfer must be a lot of the requested item (422 on `lot` otherwise, also
+ * for an id that is no lot of the company: nothing about other companies is revealed).
+ */
+async function namedLot(trx: Knex.Transaction, actor: CurrentUser, r: Row, lotId: string): Promise<{ id: string; code: string }> {
+  const lot: { id: string; code: string; item_id: string } | undefined = await trx("lots").where({ company_id: actor.companyId, id: lotId }).first("id", "code", "item_id");
+  if (!lot) throw validation({ lot: ["No such lot in your company."] });
+  if (lot.item_id !== r.item_id) throw validation({ lot: [`Lot ${lot.code} is a lot of another item, not of ${r.sku}.`] });
+  return lot;
+}
+
+/**
+ * Posts the transfer and closes the request in one transaction; a shortfall leaves it open. With
+ * `lot`, that lot is sent (a shortfall in it is 409 INSUFFICIENT_STOCK naming `lot`); an expired
+ * lot named on purpose is sent as the ledger allows for transfers (only using it is refused).
+ */
 export async function fulfilTransferRequest(actor: CurrentUser, id: string, lot?: string): Promise<{ request: TransferRequest; movements: Movement[] }> {
   const rows = await inTransaction(async (trx) => {
     const r: Row | undefined = await trx("transfer_requests as r")
@@ -107,11 +209,19 @@ export async function fulfilTransferRequest(actor: CurrentUser, id: string, lot?
     if (!r) throw notFound("Transfer request");
     assertCan(actor, "transfers.fulfil", { kitchenId: r.from_kitchen_id });
     if (r.status !== "open") throw conflict(`This request is already ${r.status}.`, "REQUEST_CLOSED");
+    const named = lot ? await namedLot(trx, actor, r, lot) : null;
     const postingId = randomUUID();
     const moved = await postInTransaction(trx, actor, {
       kind: "transfer", kitchen: r.from_code, toKitchen: r.to_code, item: r.item_id, quantity: plain(dec(r.quantity)), unit: r.stock_unit,
       lot, reason: `Transfer request ${r.id}`,
-    }, postingId);
+    }, postingId).catch((e: unknown) => {
+      if (!named || !(e instanceof AppError) || e.code !== "INSUFFICIENT_STOCK") throw e;
+      const d = (e.details ?? {}) as { available?: string; requested?: string; unit?: string };
+      const message = d.available !== undefined && dec(d.available).isZero()
+        ? `Lot ${named.code} has no stock available in ${r.from_code}.`
+        : `Lot ${named.code} has only ${d.available} ${d.unit} available in ${r.from_code}; ${d.requested} ${d.unit} asked for.`;
+      throw new AppError(409, "INSUFFICIENT_STOCK", message, { ...d, fields: { lot: [message] } });
+    });
     await trx("transfer_requests").where({ id }).update({ status: "fulfilled", decided_by: actor.id, decided_at: trx.fn.now(), posting_id: postingId });
     return moved;
   });

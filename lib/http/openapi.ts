@@ -18,14 +18,22 @@ import { z } from "zod";
 import type { meBody } from "../../app/api/me/me-body";
 import { SESSION_COOKIE } from "../auth/session";
 import type { CapturedMail } from "../data/captured-mail";
+import type { CasingCalculation } from "../data/casing-calculation";
+import type { Batch } from "../data/batches";
 import type { Company } from "../data/companies";
+import type { Recipe, RecipeSummary } from "../data/recipes";
 import type { InvitationSummary } from "../data/invitations";
 import type { Item } from "../data/items";
 import type { Kitchen } from "../data/kitchens";
+import type { TransferLotChoices } from "../data/transfer-requests";
 import type { UserSummary } from "../data/users";
 import { invitationAcceptInput, passwordResetConfirmInput, passwordResetRequestInput, signInInput } from "../validation/auth";
 import { companyUpdateInput, invitationCreateInput, kitchenCreateInput, kitchenUpdateInput, userUpdateInput } from "../validation/company";
+import { casingCalculationInput, casingCalculationResponse } from "../validation/casing";
+import { cureCalculationInput, cureCalculationResponse } from "../validation/cure";
+import { batchCreateInput, batchListQuery, batchListResponse, batchReserveAllInput, batchResponse, reserveAllResponse } from "../validation/batches";
 import { itemCreateInput, itemListQuery, itemPatchInput } from "../validation/items";
+import { recipeCreateInput, recipeGetQuery, recipeListQuery, recipeListResponse, recipeResponse, recipeVersionInput } from "../validation/recipes";
 import {
   countSheetInput, movementInput, reverseInput, stockLevelInput, transferDeclineInput, transferFulfilInput, transferRequestInput, transferRequestsQuery,
 } from "../validation/movements";
@@ -37,7 +45,7 @@ import {
 } from "../validation/responses";
 import {
   countPostedResponse, expiringLotListResponse, itemListResponse, itemResponse, movementListResponse,
-  movementPageResponse, stockLevelResponse, stockResponse, transferFulfilledResponse, transferRequestListResponse, transferRequestResponse,
+  movementPageResponse, stockLevelResponse, stockResponse, transferFulfilledResponse, transferLotChoicesResponse, transferRequestListResponse, transferRequestResponse,
 } from "../validation/responses";
 import { DEFAULT_MAX_BODY_BYTES } from "./route";
 
@@ -57,6 +65,11 @@ export type ResponseShapesMatch = [
   Assert<Same<z.infer<typeof capturedMailListResponse>, CapturedMail[]>>,
   Assert<Same<z.infer<typeof meResponse>, ReturnType<typeof meBody>>>,
   Assert<Same<z.infer<typeof itemResponse>, Item>>,
+  Assert<Same<z.infer<typeof casingCalculationResponse>, CasingCalculation>>,
+  Assert<Same<z.infer<typeof recipeResponse>, Recipe>>,
+  Assert<Same<z.infer<typeof batchResponse>, Batch>>,
+  Assert<Same<z.infer<typeof recipeListResponse>, { recipes: RecipeSummary[] }>>,
+  Assert<Same<z.infer<typeof transferLotChoicesResponse>, TransferLotChoices>>,
 ];
 
 // ---------------------------------------------------------------------------------------------
@@ -131,6 +144,32 @@ const bodies = {
     kitchenIds: { description: "Kitchens of your company; a kitchen lead needs at least one." },
   }),
   itemCreate: requestBody("ItemCreateInput", itemCreateInput, ITEM_NOTES),
+  recipeCreate: requestBody("RecipeCreateInput", recipeCreateInput, {
+    code: { description: "1 to 16 letters, digits or dashes, upper-cased; batch codes start with it.", example: "FARM-1" },
+    productClass: { description: "Fixes the cure method and the limits checked. Dry and fermented sausages are comminuted (chopped), never dry_cured." },
+    meatBlock: { description: "Meat and fat by share of the block's green weight; the shares add up to 100. Every rate is per kg of this block.", example: [{ name: "Pork shoulder, lean", percent: "70" }, { name: "Back fat", percent: "30" }] },
+    lines: { description: "Non-meat items: rate in g/kg, % or ml/kg of the meat block (basis meat_block) or of the pickle (basis pickle). ml/kg needs the item's density; cure only by mass. A cure over a statutory maximum is 422 on lines.N.rate." },
+    pickle: { description: "Pumped and immersion-cured products only: kg of pickle per kg of meat, and (pumped) the pump level as a fraction of green weight." },
+    casing: { description: "A casing item, or a calibre range (an item must lie within it), with a link length or a link weight." },
+  }),
+  casingCalculation: requestBody("CasingCalculationInput", casingCalculationInput, {
+    fillingMass: { description: "Everything stuffed: meat block plus water, salt, cure and spices, in any mass unit.", example: { quantity: "90", unit: "kg" } },
+    item: { description: "A casing item by id or SKU.", example: "HOG-32-35" },
+  }),
+  cureCalculation: requestBody("CureCalculationInput", cureCalculationInput, {
+    method: { description: "comminuted (cure mixed into chopped meat), dry (a mix rubbed on; cures[].quantity is the mix applied), pumped (pickle injected) or immersion (cuts covered in pickle)." },
+    productClass: { description: "Default from the method. comminuted covers every chopped or ground product, dry and fermented sausages included (never dry_cured); dry_cured, immersion_cured, pumped; bacon_pumped, bacon_immersion, bacon_dry (9 CFR 424.22(b)). A class the method cannot make is 422." },
+    storage: { description: "keep_refrigerated adds the 120 ppm minimum (FSIS policy, a warning); shelf_stable does not. Left out: not checked (a note says so)." },
+    table: { description: "us, eu or none; default the company's (Settings > Company). eu needs batchMass. none: no check, nothing blocked." },
+    meatBlock: { description: "Green weight of the meat block, any mass unit; every US ppm is on it.", example: { quantity: "1", unit: "kg" } },
+    cures: { description: "One or more cures; they add up. Each: quantity and unit (left out for the one cure of an inverse calculation), nitriteFraction (required, from the label: 6.25 % is \"0.0625\"), nitrateFraction, nitriteSalt/nitrateSalt (sodium by default, or potassium).", example: [{ quantity: "2.5", unit: "g", nitriteFraction: "0.0625" }] },
+    cure: { description: "A single cure instead of cures." },
+    pickle: { description: "Pumped and immersion: the pickle's weight (the cures are what is dissolved in it)." },
+    pumpFraction: DECIMAL("Pumped: pickle injected per green weight (10 % is 0.1).", "0.1"),
+    batchMass: { description: "EU: the whole batch (meat and everything added); EU figures are mg per kg of it. Required with table eu." },
+    heatTreatment: { description: "EU: not_heat_treated (08.3.1), heat_treated or sterilised (08.3.2)." },
+    targetNitritePpm: DECIMAL("Inverse: the nitrite wanted (ppm of the cure's nitrite salt); give one cure without quantity and get requiredCure.", "120"),
+  }),
   movement: requestBody("MovementInput", movementInput, {
     kind: { description: "receipt, transfer, use, waste, adjustment or count." },
     kitchen: { description: "The kitchen's code.", example: "YARD" },
@@ -148,7 +187,9 @@ const bodies = {
     toKitchen: { description: "Your kitchen, which receives, by code.", example: "YARD" },
     quantity: DECIMAL("Above zero, in unit.", "2"),
   }),
-  transferFulfil: requestBody("TransferFulfilInput", transferFulfilInput, { lot: { description: "Send this lot; default first-expired-first-out." } }),
+  transferFulfil: requestBody("TransferFulfilInput", transferFulfilInput, {
+    lot: { description: "The id of the lot to send: a lot of the requested item with enough available in the sending kitchen (GET /api/transfer-requests/{id}/lots lists them). Left out: first-expired-first-out, expired lots skipped. An expired lot named here is sent (the ledger refuses only to use one)." },
+  }),
   transferDecline: requestBody("TransferDeclineInput", transferDeclineInput),
   countSheet: requestBody("CountSheetInput", countSheetInput, {
     kitchen: { description: "The kitchen's code.", example: "YARD" },
@@ -236,6 +277,7 @@ export const TAGS = [
   { name: "Items", description: "The catalogue: casings, cures, spices and other ingredients, with their purchase packs." },
   { name: "Stock", description: "On hand, reserved and available per kitchen and lot; par levels; lots about to expire." },
   { name: "Ledger", description: "Movements: receipts, transfers, use, waste, adjustments and counts; reversals; count sheets." },
+  { name: "Planning", description: "Calculators and, as they land, recipes, batch plans and reservations." },
   { name: "Users", description: "People in the company, their roles and kitchens. Admins only." },
   { name: "Invitations", description: "Single-use e-mailed links that create accounts." },
   { name: "Mail catcher", description: "Local development only: e-mail caught instead of sent." },
@@ -247,6 +289,8 @@ const idParam = (what: string) =>
   z.object({
     id: z.uuid().meta({ description: `The ${what}'s id. An id that is not a UUID, or not in your company, answers 404.` }),
   });
+
+const BATCH_ID = z.object({ id: z.uuid().meta({ description: "The batch's id. Not in your company: 404." }) });
 
 const ITEM_REF = z.object({
   id: z.string().meta({ description: "The item's id (a UUID) or its SKU. Not in your company: 404.", example: "HOG-32-35" }),
@@ -382,7 +426,7 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
   {
     method: "get", path: "/api/movements", operationId: "listMovements", tag: "Ledger", auth: true,
     summary: "Movement history",
-    description: "Newest first, filtered by kitchen, item, lot, kind and time; pages by cursor. format=csv answers text/csv (X-Next-Cursor header for the next page).",
+    description: "Newest first, filtered by kitchen, item, lot, kind and time; pages by cursor. Each movement carries the name of the person who posted it (userName). format=csv answers text/csv with the same columns plus user (the name; \"former user\" when the user is no longer in the company; empty when none is recorded), X-Next-Cursor header for the next page.",
     query: movementsQuery,
     success: { status: 200, description: "A page of movements.", schema: movementPageResponse },
     errors: { 404: [["NOT_FOUND", "No such kitchen or item in your company."]] },
@@ -426,6 +470,135 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
     },
   },
   {
+    method: "get", path: "/api/recipes", operationId: "listRecipes", tag: "Planning", auth: true,
+    summary: "Recipes",
+    description: "The company's recipes with their current version's product class; archived ones with includeArchived=true.",
+    query: recipeListQuery,
+    success: { status: 200, description: "The recipes, by name.", schema: recipeListResponse },
+    errors: { 403: [["FORBIDDEN", "Your role does not read plans and recipes."]] },
+  },
+  {
+    method: "post", path: "/api/recipes", operationId: "createRecipe", tag: "Planning", auth: true, idempotent: true,
+    summary: "Write a recipe",
+    description: "A new recipe and its version 1. Every line is checked against the catalogue and the cure against the company's table: a recipe over a statutory maximum cannot be saved.",
+    body: bodies.recipeCreate,
+    success: { status: 201, description: "The recipe with its version 1 and its cure check.", schema: recipeResponse },
+    errors: {
+      403: [["FORBIDDEN", "Your role does not write recipes."]],
+      422: [["VALIDATION", "A field is wrong (shares not adding up to 100, an unknown item, a casing outside the calibre range, the cure over a statutory maximum...): details.fields names it."]],
+    },
+  },
+  {
+    method: "get", path: "/api/recipes/{id}", operationId: "getRecipe", tag: "Planning", auth: true,
+    summary: "A recipe",
+    description: "A recipe by id or code, with its current version (or ?version=N), the list of its versions and the cure check at its exact rates.",
+    params: z.object({ id: z.string().meta({ description: "The recipe's id or code. Not in your company: 404.", example: "FARM-1" }) }),
+    query: recipeGetQuery,
+    success: { status: 200, description: "The recipe.", schema: recipeResponse },
+    errors: { 403: [["FORBIDDEN", "Your role does not read plans and recipes."]], 404: [["NOT_FOUND", "No such recipe or version in your company."]] },
+  },
+  {
+    method: "post", path: "/api/recipes/{id}/versions", operationId: "addRecipeVersion", tag: "Planning", auth: true, idempotent: true,
+    summary: "Write a new version of a recipe",
+    description: "The new version becomes the current one; earlier versions stay exactly as written (batches keep the version they were planned with).",
+    params: z.object({ id: z.string().meta({ description: "The recipe's id or code." }) }),
+    body: requestBody("RecipeVersionInput", recipeVersionInput),
+    success: { status: 201, description: "The recipe with its new version.", schema: recipeResponse },
+    errors: {
+      403: [["FORBIDDEN", "Your role does not write recipes."]],
+      404: [["NOT_FOUND", "No such recipe in your company."]],
+      409: [["CONFLICT", "The recipe is archived."]],
+      422: [["VALIDATION", "A field is wrong: details.fields names it."]],
+    },
+  },
+  {
+    method: "get", path: "/api/batches", operationId: "listBatches", tag: "Planning", auth: true,
+    summary: "Batch plans",
+    description: "Batches by production day, each with its bill of materials, reservations, shortages and suggestions; filter by kitchen, dates and status.",
+    query: batchListQuery,
+    success: { status: 200, description: "The batches.", schema: batchListResponse },
+    errors: { 403: [["FORBIDDEN", "Your role does not read plans."]], 404: [["NOT_FOUND", "No such kitchen in your company."]] },
+  },
+  {
+    method: "post", path: "/api/batches", operationId: "planBatch", tag: "Planning", auth: true, idempotent: true,
+    summary: "Plan a batch",
+    description: "A recipe version and a meat block (or links x link weight) in one kitchen on one day become the exact bill of materials in each item's stock unit, casing metres and put-ups, and cure grams rounded to the kitchen scale toward compliance with the ppm verdict on the rounded amount. A plan over a statutory maximum cannot be saved (422).",
+    body: requestBody("BatchCreateInput", batchCreateInput),
+    success: { status: 201, description: "The planned batch with its shortages.", schema: batchResponse },
+    errors: {
+      403: [["FORBIDDEN", "Not your kitchen, or your role does not plan."]],
+      404: [["NOT_FOUND", "No such kitchen or recipe in your company."]],
+      422: [["VALIDATION", "A field is wrong (a zero meat block, a unit that is not a mass, a day in the past, a casing outside the recipe's calibre range, the cure over a statutory maximum): details.fields names it."]],
+    },
+  },
+  {
+    method: "get", path: "/api/batches/{id}", operationId: "getBatch", tag: "Planning", auth: true,
+    summary: "A batch plan",
+    description: "The batch with its lines, the lots reserved for each, what is short and where it could come from.",
+    params: BATCH_ID,
+    success: { status: 200, description: "The batch.", schema: batchResponse },
+    errors: { 403: [["FORBIDDEN", "Your role does not read plans."]], 404: [["NOT_FOUND", "No such batch in your company."]] },
+  },
+  {
+    method: "post", path: "/api/batches/{id}/reserve", operationId: "reserveBatch", tag: "Planning", auth: true, idempotent: true,
+    summary: "Reserve a batch's stock",
+    description: "Allocates lots first-expired-first-out (dated lots by date, then undated by receipt; lots expiring on or before the production day are skipped), splitting across lots, all or nothing. Available stock drops at once. Reserving again tops up what is missing.",
+    params: BATCH_ID,
+    success: { status: 200, description: "The batch with its reservations.", schema: batchResponse },
+    errors: {
+      403: [["FORBIDDEN", "Not your kitchen."]],
+      404: [["NOT_FOUND", "No such batch in your company."]],
+      409: [["SHORTAGE", "Not enough stock: details.lines names each line short; nothing was reserved."], ["CONFLICT", "The batch is produced, on hold or cancelled."]],
+    },
+  },
+  {
+    method: "post", path: "/api/batches/{id}/release", operationId: "releaseBatch", tag: "Planning", auth: true, idempotent: true,
+    summary: "Release a batch's reservations",
+    description: "Gives the reserved lots back to available stock; the batch stays planned.",
+    params: BATCH_ID,
+    success: { status: 200, description: "The batch.", schema: batchResponse },
+    errors: { 403: [["FORBIDDEN", "Not your kitchen."]], 404: [["NOT_FOUND", "No such batch in your company."]], 409: [["CONFLICT", "The batch is produced, on hold or cancelled."]] },
+  },
+  {
+    method: "post", path: "/api/batches/{id}/cancel", operationId: "cancelBatch", tag: "Planning", auth: true, idempotent: true,
+    summary: "Cancel a batch plan",
+    description: "Releases what the batch held and marks it cancelled.",
+    params: BATCH_ID,
+    success: { status: 200, description: "The cancelled batch.", schema: batchResponse },
+    errors: { 403: [["FORBIDDEN", "Not your kitchen."]], 404: [["NOT_FOUND", "No such batch in your company."]], 409: [["CONFLICT", "The batch is produced, on hold or cancelled."]] },
+  },
+  {
+    method: "post", path: "/api/batches/reserve-all", operationId: "reserveAllBatches", tag: "Planning", auth: true, idempotent: true,
+    summary: "Reserve every planned batch of a kitchen between two days",
+    description: "Each batch all or nothing, in production-day order; the answer says which batches were reserved and what the others lack.",
+    body: requestBody("BatchReserveAllInput", batchReserveAllInput),
+    success: { status: 200, description: "Per batch: reserved, or what is short.", schema: reserveAllResponse },
+    errors: { 403: [["FORBIDDEN", "Not your kitchen."]], 404: [["NOT_FOUND", "No such kitchen in your company."]] },
+  },
+  {
+    method: "post", path: "/api/calculations/casing", operationId: "calculateCasing", tag: "Planning", auth: true,
+    summary: "Casing for a filling mass",
+    description: "Metres of casing, put-ups to open (rounded up) and links (rounded down) for a filling mass. A natural casing is planned from its capacity per put-up (the item's, or the calibre table's lower bound); a manufactured casing or a bare calibre as a cylinder with a fill factor (default 0.9) and density (default 1.03 g/cm³). Computes only; writes nothing.",
+    body: bodies.casingCalculation,
+    success: { status: 200, description: "The casing needed.", schema: casingCalculationResponse },
+    errors: {
+      403: [["FORBIDDEN", "Your role does not plan."]],
+      404: [["NOT_FOUND", "No such item in your company."]],
+      422: [["VALIDATION", "A field is wrong (a unit of the wrong dimension, a fill factor over 1, an item that is not a casing, a natural casing with no known capacity): details.fields names it."]],
+    },
+  },
+  {
+    method: "post", path: "/api/calculations/cure", operationId: "calculateCure", tag: "Planning", auth: true,
+    summary: "Ingoing nitrite of a cure, checked",
+    description: "FSIS method (Directive 7620.3): ingoing nitrite and nitrate ppm on the meat block's green weight, exact, answered to 4 places, and every check of the table (the company's unless `table` says otherwise) with its entry, citation and date read, kind (max, min, target), limit and verdict decided on exact values (max means ppm <= limit: 2.5 g/kg of a 6.25 % cure, 156.25 ppm, is within the comminuted maximum). Verified statutory maxima block (`blocked`); minima and required levels warn with the deviation; bacon's alternative levels are checks of their own. EU figures are mg/kg of the whole batch as the ion; those not read in the annex text are marked unverified and not applied. With targetNitritePpm and one cure without quantity: `requiredCure`, rounded to the company's scale resolution toward compliance, verdict on the rounded amount. The answer always carries the cure caution. Computes only; writes nothing.",
+    body: bodies.cureCalculation,
+    success: { status: 200, description: "The ppm, the checks, notes and the caution.", schema: cureCalculationResponse },
+    errors: {
+      403: [["FORBIDDEN", "Your role does not plan (planning.read)."]],
+      422: [["VALIDATION", "A field is wrong, named in details.fields: a cure without nitriteFraction (cures.N.nitriteFraction), a meat block of zero or less, a unit that is not a mass, an unknown productClass, table or method, a class the method cannot make, table eu without batchMass, a pumped cure without pickle or pumpFraction."]],
+    },
+  },
+  {
     method: "get", path: "/api/transfer-requests", operationId: "listTransferRequests", tag: "Ledger", auth: true,
     summary: "Transfer requests",
     description: "Requests between the company's kitchens, newest first; kitchen filters those the kitchen sends or receives.",
@@ -443,15 +616,27 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
   {
     method: "post", path: "/api/transfer-requests/{id}/fulfil", operationId: "fulfilTransferRequest", tag: "Ledger", auth: true, idempotent: true,
     summary: "Fulfil a transfer request",
-    description: "Posts the transfer from the asked kitchen and closes the request, in one transaction. A shortfall leaves it open.",
+    description: "Posts the transfer from the asked kitchen and closes the request, in one transaction: the lot named, or first-expired-first-out across lots. A shortfall leaves it open. Send an Idempotency-Key so a retry cannot send twice.",
     params: idParam("transfer request"),
     body: bodies.transferFulfil,
     success: { status: 201, description: "The closed request and the transfer's movements.", schema: transferFulfilledResponse },
     errors: {
       403: [["FORBIDDEN", "Only the sending kitchen's lead, a manager or an admin."]],
       404: [["NOT_FOUND", "No such request in your company."]],
-      409: [["REQUEST_CLOSED", "Already fulfilled, declined or cancelled."], ["INSUFFICIENT_STOCK", "Not enough available in the sending kitchen."]],
+      409: [
+        ["REQUEST_CLOSED", "Already fulfilled, declined or cancelled."],
+        ["INSUFFICIENT_STOCK", "Not enough available in the sending kitchen (details.available, details.requested, details.unit); with a lot named, in that lot (details.fields.lot)."],
+      ],
+      422: [["VALIDATION", "The lot is not a lot of the requested item, or no lot of your company (details.fields.lot)."]],
     },
+  },
+  {
+    method: "get", path: "/api/transfer-requests/{id}/lots", operationId: "listTransferLotChoices", tag: "Ledger", auth: true,
+    summary: "Lots that could fill a transfer request",
+    description: "The sending kitchen's lots of the requested item with stock available (code, date and its kind, days left, available), in first-expired-first-out order, and which of them fulfilling without a lot would take now.",
+    params: idParam("transfer request"),
+    success: { status: 200, description: "The lots and the suggested draw.", schema: transferLotChoicesResponse },
+    errors: { 404: [["NOT_FOUND", "No such request in your company."]] },
   },
   {
     method: "post", path: "/api/transfer-requests/{id}/decline", operationId: "declineTransferRequest", tag: "Ledger", auth: true,

@@ -2,6 +2,7 @@
 // data layer are erased at build time). Every error answer of the API is thrown as ApiError with
 // the server's code, message and per-field messages, so callers can name the line that failed.
 import type { Movement } from "@/lib/data/ledger";
+import type { MovementEntry } from "@/lib/data/movements";
 import type { KitchenStock } from "@/lib/data/stock";
 import type { StockLevel } from "@/lib/data/stock-levels";
 
@@ -25,7 +26,7 @@ export const stockQueryOptions = (kitchen: string) => ({
 });
 
 export interface MovementsPage {
-  movements: Movement[];
+  movements: MovementEntry[];
   nextCursor: string | null;
 }
 

@@ -1,11 +1,21 @@
 import { z } from "zod";
 import { ROLES } from "../../db/types";
-import { email, role, timeZone, uuid } from "./common";
+import { TABLES } from "../cure/limits";
+import { dec } from "../units";
+import { email, decimalString, role, timeZone, uuid } from "./common";
 
 export const companyUpdateInput = z.object({
   name: z.string().trim().min(1, "Enter the company name.").max(120),
   timeZone,
   currency: z.string().trim().toUpperCase().regex(/^[A-Z]{3}$/, "Use a three-letter ISO 4217 code, e.g. EUR."),
+});
+
+/** The cure calculator's company settings (Settings > Company). */
+export const companyCureSettingsInput = z.object({
+  regulatoryTable: z.enum(TABLES, { error: "Choose the table: us, eu or none." }),
+  scaleResolutionG: decimalString({ scale: 4 }).refine((v) => dec(v).isPositive() && !dec(v).isZero() && dec(v).lte(100), {
+    error: "The scale resolution is in grams, more than 0 and at most 100 (e.g. 0.1).",
+  }),
 });
 
 export const kitchenCode = z

@@ -91,7 +91,8 @@ export const transferRequestInput = z
   })
   .refine((v) => v.fromKitchen.toUpperCase() !== v.toKitchen.toUpperCase(), { path: ["fromKitchen"], message: "Ask another kitchen than your own." });
 
-export const transferFulfilInput = z.object({ lot: uuid.optional() });
+/** lot: the lot to send, by id; left out, the ledger draws first-expired-first-out. */
+export const transferFulfilInput = z.object({ lot: z.uuid({ error: "Name the lot by its id, or leave it out to send first expired first out." }).optional() });
 export const transferDeclineInput = z.object({ reason: z.string().trim().min(1, "Say why the request is declined.").max(500) });
 export const transferRequestsQuery = z.object({
   status: z.enum(["open", "fulfilled", "declined", "cancelled"]).optional(),

@@ -239,8 +239,14 @@ export const movementResponse = z
   .meta({ id: "Movement" });
 
 export const movementListResponse = z.object({ movements: z.array(movementResponse) }).meta({ id: "MovementList" });
+/** A movement in the history (GET /api/movements): with the name of the person who posted it. */
+export const movementEntryResponse = movementResponse
+  .extend({
+    userName: z.string().nullable().meta({ description: "The name of the person who posted it; null when no person is recorded (userId null) or the user is no longer in your company.", example: "Oskar Pell" }),
+  })
+  .meta({ id: "MovementEntry" });
 export const movementPageResponse = z
-  .object({ movements: z.array(movementResponse), nextCursor: z.string().nullable().meta({ description: "Pass as cursor for the next page; null on the last." }) })
+  .object({ movements: z.array(movementEntryResponse), nextCursor: z.string().nullable().meta({ description: "Pass as cursor for the next page; null on the last." }) })
   .meta({ id: "MovementPage" });
 export const countPostedResponse = z.object({ countId: id, movements: z.array(movementResponse) }).meta({ id: "CountPosted" });
 
@@ -318,3 +324,27 @@ export const transferRequestResponse = z
   .meta({ id: "TransferRequest" });
 export const transferRequestListResponse = z.object({ requests: z.array(transferRequestResponse) }).meta({ id: "TransferRequestList" });
 export const transferFulfilledResponse = z.object({ request: transferRequestResponse, movements: z.array(movementResponse) }).meta({ id: "TransferFulfilled" });
+export const transferLotChoicesResponse = z
+  .object({
+    item: z.object({
+      id, sku: z.string(), name: z.string(), unit: z.enum(STOCK_UNITS), trackLots: z.boolean(), trackDates: z.boolean(),
+      casing: stockRow.shape.casing, cure: z.boolean().meta({ description: "A curing salt." }),
+    }),
+    kitchen: codeRef.meta({ description: "The sending kitchen." }),
+    today: z.string().meta({ description: "The company's date (yyyy-mm-dd), by which expiry is judged." }),
+    lots: z.array(z.object({
+      lotId: id,
+      code: z.string(),
+      date: z.string().nullable().meta({ description: "Use-by or best-before, yyyy-mm-dd." }),
+      dateKind: z.enum(DATE_KINDS).nullable(),
+      receivedOn: z.string(),
+      daysLeft: z.number().int().nullable().meta({ description: "Days from the company's today; negative once expired; null when undated." }),
+      expired: z.boolean(),
+      available: qty("On hand minus reserved in the sending kitchen."),
+    })).meta({ description: "The sending kitchen's lots of the item with stock available, in the order a first-expired-first-out draw takes them (expired ones included, flagged)." }),
+    fefo: z.object({
+      takes: z.array(z.object({ lotId: id, code: z.string(), quantity: qty("Taken from this lot.") })),
+      short: qty("What those lots cannot cover; 0 when the request can be filled.", "0"),
+    }).meta({ description: "What fulfilling without a lot would send now (expired lots skipped)." }),
+  })
+  .meta({ id: "TransferLotChoices" });

@@ -1,11 +1,14 @@
+import { execFile } from "node:child_process";
+import { promisify } from "node:util";
 import knexFactory, { type Knex } from "knex";
 import { register as registerCjs } from "tsx/cjs/api";
 import { register as registerEsm } from "tsx/esm/api";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { closeDb } from "../../db/client";
 import { DEMO_COMPANIES, DEMO_PASSWORD } from "../../db/seeds/demo-data";
-import { loadDemo } from "../../db/seeds/load-demo";
-import { verifyPassword } from "../../lib/auth/password";
+import { DEMO_ITEMS } from "../../db/seeds/demo-stock-catalogue";
+import { loadDemo, type DemoLoad } from "../../db/seeds/load-demo";
+import { hashPassword, verifyPassword } from "../../lib/auth/password";
 import { getStock } from "../../lib/data/stock";
 import { dec } from "../../lib/units";
 import { tag } from "../support/factory";
@@ -44,7 +47,7 @@ async function freshDatabase(): Promise<{ knex: Knex; url: string; drop: () => P
 
 let seedDb: Knex;
 let dropSeedDb: (() => Promise<void>) | undefined;
-let loaded: boolean;
+let loaded: DemoLoad;
 let loadSeconds: number;
 let planWarnings: unknown[][];
 
@@ -69,9 +72,13 @@ afterAll(async () => {
   await admin?.destroy();
 });
 
+const countOf = async (knex: Knex, table: string, where: Record<string, unknown> = {}) =>
+  Number((await knex(table).where(where).count<{ n: string }[]>("* as n"))[0]!.n);
+
 describe("loadDemo on an empty database", () => {
   it("loads the two demo companies, their kitchens and one user per role", async () => {
-    expect(loaded).toBe(true);
+    expect(loaded.companies).toBe(true);
+    expect(loaded.stock).not.toBeNull();
 
     const companies = await seedDb("companies").orderBy("name");
     expect(companies.map((c) => c.name).sort()).toEqual(["Ferngill Larder", "Quillmoor Provisions"]);
@@ -99,6 +106,20 @@ describe("loadDemo on an empty database", () => {
     expect(leadKitchens).toEqual(["YARD"]);
   });
 
+  it("writes the demo recipes through the same checks as a person, and next week's plans in the Yard", async () => {
+    expect(loaded.recipes).toEqual({ recipes: 3, batches: 3 });
+    const first = await seedDb("companies").where({ name: "Quillmoor Provisions" }).first();
+    expect(await seedDb("recipes").where({ company_id: first.id }).orderBy("code").pluck("code")).toEqual(["LANE-BKF", "ROPE-SAL", "YARD-SMK"]);
+    // every recipe's lines found their demo items (none was dropped for a missing SKU)
+    const lines = await seedDb("recipe_lines as l").join("recipe_versions as v", "v.id", "l.recipe_version_id").join("recipes as r", "r.id", "v.recipe_id")
+      .where("r.company_id", first.id).groupBy("r.code").select("r.code", seedDb.raw("count(*)::int as n"));
+    expect(Object.fromEntries(lines.map((l: { code: string; n: number }) => [l.code, l.n]))).toEqual({ "YARD-SMK": 6, "LANE-BKF": 5, "ROPE-SAL": 7 });
+    const batches = await seedDb("batches as b").join("kitchens as k", "k.id", "b.kitchen_id").where("b.company_id", first.id).orderBy("b.planned_for").select("k.code", "b.status");
+    expect(batches.map((b: { code: string }) => b.code)).toEqual(["YARD", "YARD", "YARD"]);
+    expect(batches[0].status).toBe("reserved");
+    expect(await countOf(seedDb, "reservations")).toBeGreaterThan(0);
+  });
+
   it("the demo password signs every demo user in", async () => {
     const users = await seedDb("app_users").select("email", "password_hash");
     expect(users).toHaveLength(DEMO_COMPANIES.reduce((n, c) => n + c.users.length, 0));
@@ -109,16 +130,18 @@ describe("loadDemo on an empty database", () => {
     }
   });
 
-  it("a second call loads nothing and never wipes", async () => {
-    const count = async (table: string) => Number((await seedDb(table).count<{ n: string }[]>("* as n"))[0]!.n);
-    const before = { companies: await count("companies"), kitchens: await count("kitchens"), users: await count("app_users") };
+  it("a second call (and two at once) loads nothing, posts nothing and never wipes", async () => {
+    const tables = ["companies", "kitchens", "app_users", "items", "lots", "stock_movements", "stock_levels", "recipes", "batches", "reservations"];
+    const counts = async () => Object.fromEntries(await Promise.all(tables.map(async (t) => [t, await countOf(seedDb, t)])));
+    const before = await counts();
     const ids = await seedDb("app_users").orderBy("id").pluck("id");
     // a change made since loading must survive
     await seedDb("kitchens").where({ code: "ROPE" }).update({ name: "Renamed by a user" });
 
-    expect(await loadDemo(seedDb)).toBe(false);
+    expect(await loadDemo(seedDb)).toEqual({ companies: false, stock: null, recipes: null });
+    expect(await Promise.all([loadDemo(seedDb), loadDemo(seedDb)])).toEqual([{ companies: false, stock: null, recipes: null }, { companies: false, stock: null, recipes: null }]);
 
-    expect({ companies: await count("companies"), kitchens: await count("kitchens"), users: await count("app_users") }).toEqual(before);
+    expect(await counts()).toEqual(before);
     expect(await seedDb("app_users").orderBy("id").pluck("id")).toEqual(ids);
     expect((await seedDb("kitchens").where({ code: "ROPE" }).first()).name).toBe("Renamed by a user");
   });
@@ -127,9 +150,100 @@ describe("loadDemo on an empty database", () => {
     const { knex, drop } = await freshDatabase();
     try {
       await knex("companies").insert({ name: "A real customer" });
-      expect(await loadDemo(knex)).toBe(false);
+      expect(await loadDemo(knex)).toEqual({ companies: false, stock: null, recipes: null });
       expect(await knex("companies").pluck("name")).toEqual(["A real customer"]);
       expect(await knex("app_users").first()).toBeUndefined();
+      expect(await knex("items").first()).toBeUndefined();
+    } finally {
+      await drop();
+    }
+  }, 60_000);
+});
+
+/** What the seed left before the demo had stock: the demo companies, kitchens and users. Their ids by name. */
+async function demoCompaniesWithoutStock(knex: Knex): Promise<Record<string, string>> {
+  const hash = await hashPassword(DEMO_PASSWORD);
+  const demo: Record<string, string> = {};
+  for (const c of DEMO_COMPANIES) {
+    const [company] = await knex("companies").insert({ name: c.name, time_zone: c.timeZone, currency: c.currency }).returning<{ id: string }[]>("id");
+    demo[c.name] = company!.id;
+    const kitchens = await knex("kitchens").insert(c.kitchens.map((k) => ({ company_id: company!.id, code: k.code, name: k.name, address: k.address })))
+      .returning<{ id: string; code: string }[]>(["id", "code"]);
+    for (const u of c.users) {
+      const [user] = await knex("app_users").insert({ company_id: company!.id, email: u.email, name: u.name, role: u.role, password_hash: hash }).returning<{ id: string }[]>("id");
+      const ids = kitchens.filter((k) => u.kitchens.includes(k.code)).map((k) => k.id);
+      if (ids.length) await knex("user_kitchens").insert(ids.map((kitchen_id) => ({ company_id: company!.id, user_id: user!.id, kitchen_id })));
+    }
+  }
+  return demo;
+}
+
+describe("`npm run seed` on a database made before the demo had stock", () => {
+  const exec = promisify(execFile);
+  /** The seed script as `npm run seed` runs it, on its own database. */
+  const seed = async (url: string) =>
+    (await exec(process.execPath, ["--conditions=react-server", "--import", "tsx", "db/seeds/load-demo.ts"], { env: { ...process.env, DATABASE_URL: url }, timeout: 170_000 })).stdout;
+
+  it("loads the demo stock into the demo company once, and never into another company", async () => {
+    const { knex, url, drop } = await freshDatabase();
+    try {
+      const demo = await demoCompaniesWithoutStock(knex);
+      const hash = await hashPassword(DEMO_PASSWORD);
+      // a customer with no stock yet, and one who happens to share the demo company's name
+      const customers = await knex("companies").insert([{ name: "A real customer" }, { name: DEMO_COMPANIES[0]!.name }]).returning<{ id: string }[]>("id");
+      for (const [i, c] of customers.entries()) {
+        await knex("kitchens").insert(["YARD", "LANE", "ROPE"].map((code) => ({ company_id: c.id, code, name: `Kitchen ${code}` })));
+        for (const role of ["buyer", "manager", "kitchen_lead"]) {
+          await knex("app_users").insert({ company_id: c.id, email: `${role}-${i}-${tag()}@customer.example`, name: role, role, password_hash: hash });
+        }
+      }
+      const first = demo[DEMO_COMPANIES[0]!.name]!;
+      const second = demo[DEMO_COMPANIES[1]!.name]!;
+
+      // two starts at once: one posts the stock, the other waits and finds it there
+      const outputs = await Promise.all([seed(url), seed(url)]);
+      expect(outputs.filter((o) => o.includes("demo stock loaded into the demo company"))).toHaveLength(1);
+      expect(outputs.filter((o) => o.includes("nothing to load"))).toHaveLength(1);
+      const movements = await countOf(knex, "stock_movements", { company_id: first });
+      expect(movements).toBeGreaterThan(300);
+      expect(await countOf(knex, "items", { company_id: first })).toBe(DEMO_ITEMS.length);
+      expect(await countOf(knex, "stock_counts", { company_id: first })).toBeGreaterThanOrEqual(15);
+      const balances = await knex.raw(
+        `select b.lot_id from stock_balances b
+          where b.company_id = :c and (b.on_hand < 0 or b.on_hand <> (select coalesce(sum(delta), 0) from stock_movements m where m.kitchen_id = b.kitchen_id and m.lot_id = b.lot_id))`,
+        { c: first },
+      );
+      expect(balances.rows).toEqual([]);
+      // nobody else got anything
+      for (const id of [second, ...customers.map((c) => c.id)]) {
+        expect(await countOf(knex, "items", { company_id: id })).toBe(0);
+        expect(await countOf(knex, "stock_movements", { company_id: id })).toBe(0);
+      }
+
+      // a later start posts nothing more
+      expect(await seed(url)).toContain("nothing to load");
+      expect(await countOf(knex, "stock_movements", { company_id: first })).toBe(movements);
+      expect(await countOf(knex, "items", { company_id: first })).toBe(DEMO_ITEMS.length);
+      expect(await countOf(knex, "companies")).toBe(4);
+    } finally {
+      await drop();
+    }
+  }, 360_000);
+
+  it("leaves a demo company changed by hand alone, saying why", async () => {
+    const { knex, drop } = await freshDatabase();
+    try {
+      const first = (await demoCompaniesWithoutStock(knex))[DEMO_COMPANIES[0]!.name]!;
+      await knex("app_users").where({ company_id: first, role: "buyer" }).update({ disabled_at: new Date() });
+      const warn = vi.spyOn(console, "warn").mockImplementation(() => {});
+      try {
+        expect(await loadDemo(knex)).toEqual({ companies: false, stock: null, recipes: null });
+        expect(warn.mock.calls.flat().join(" ")).toContain("no active buyer");
+      } finally {
+        warn.mockRestore();
+      }
+      expect(await knex("items").first()).toBeUndefined();
+      expect(await knex("stock_movements").first()).toBeUndefined();
     } finally {
       await drop();
     }
@@ -143,7 +257,7 @@ describe("the demo stock of the first demo company", () => {
     (await seedDb.raw<{ rows: { d: string }[] }>("select to_char((now() at time zone ?)::date, 'YYYY-MM-DD') as d", [c.time_zone])).rows[0]!.d;
 
   it("loads as planned, in reasonable time", () => {
-    expect(loaded).toBe(true);
+    expect(loaded.stock?.mismatches).toEqual([]);
     expect(planWarnings).toEqual([]); // every planned posting went through and on hand is what the plan expected
     console.info(`[demo-seed] demo load took ${loadSeconds.toFixed(1)} s`);
   });

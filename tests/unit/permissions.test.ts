@@ -26,6 +26,7 @@ const EXPECTED = `
   transfers.request    all    all      -      own           -
   transfers.fulfil     all    all      -      own           -
   planning.read        all    all      -      all           all
+  recipes.manage       all    all      -      all           -
   planning.manage      all    all      -      own           -
   production.post      all    all      -      own           -
   limits.override      all    all      -      -             -

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { notFound } from "next/navigation";
 import { PageHeader } from "@/components/shell/page-header";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -15,7 +16,12 @@ export default async function Page() {
   const kitchen = await getCurrentKitchen(user);
   return (
     <>
-      <PageHeader title="Planning" kitchen={kitchen} description="Next week's batches, what they need and what is reserved for them." />
+      <PageHeader
+        title="Planning"
+        kitchen={kitchen}
+        description="Next week's batches, what they need and what is reserved for them."
+        actions={<Link href="/planning/cure" className="btn-quiet">Cure calculator</Link>}
+      />
       <EmptyState title="No batches planned">
         <p>Recipes and batch plans open here: each plan turns into cure, salt, spice and casing quantities, checks ingoing nitrite and reserves lots first-expired-first-out.</p>
       </EmptyState>

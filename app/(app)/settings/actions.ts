@@ -3,8 +3,8 @@
 import { revalidatePath } from "next/cache";
 import { appErrorState, zodErrors, type FormState } from "@/components/ui/form-state";
 import { requireUser } from "@/lib/auth/session";
-import { updateCompany } from "@/lib/data/companies";
-import { companyUpdateInput } from "@/lib/validation/company";
+import { updateCompany, updateCureSettings } from "@/lib/data/companies";
+import { companyCureSettingsInput, companyUpdateInput } from "@/lib/validation/company";
 
 export type CompanyFormState = FormState<{ name?: string; timeZone?: string; currency?: string }>;
 
@@ -23,4 +23,23 @@ export async function updateCompanyAction(_prev: CompanyFormState, form: FormDat
   // the company name is in every page's header
   revalidatePath("/", "layout");
   return { ok: true, message: "Company details saved." };
+}
+
+export type CureSettingsFormState = FormState<{ regulatoryTable?: string; scaleResolutionG?: string }>;
+
+/** The cure calculator's table and kitchen scale resolution (Settings > Company). */
+export async function updateCureSettingsAction(_prev: CureSettingsFormState, form: FormData): Promise<CureSettingsFormState> {
+  const user = await requireUser();
+  const values = { regulatoryTable: String(form.get("regulatoryTable") ?? ""), scaleResolutionG: String(form.get("scaleResolutionG") ?? "") };
+  const parsed = companyCureSettingsInput.safeParse(values);
+  if (!parsed.success) return { fieldErrors: zodErrors(parsed.error), values };
+  try {
+    await updateCureSettings(user, parsed.data);
+  } catch (e) {
+    const state = appErrorState(e);
+    if (!state) throw e;
+    return { ...state, values };
+  }
+  revalidatePath("/planning/cure");
+  return { ok: true, message: "Cure calculator settings saved." };
 }

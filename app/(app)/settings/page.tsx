@@ -4,8 +4,9 @@ import { PageHeader } from "@/components/shell/page-header";
 import { timeZoneOptions } from "@/components/ui/time-zones";
 import { can } from "@/lib/auth/permissions";
 import { requireUser } from "@/lib/auth/session";
-import { getCompany } from "@/lib/data/companies";
+import { getCompany, getCureSettings } from "@/lib/data/companies";
 import { CompanyForm } from "./_components/company-form";
+import { CureSettingsForm } from "./_components/cure-settings-form";
 
 export const metadata: Metadata = { title: "Company settings" };
 export const dynamic = "force-dynamic";
@@ -13,11 +14,12 @@ export const dynamic = "force-dynamic";
 export default async function CompanySettingsPage() {
   const user = await requireUser();
   if (!can(user, "company.manage")) notFound();
-  const company = await getCompany(user);
+  const [company, cure] = await Promise.all([getCompany(user), getCureSettings(user)]);
   return (
     <>
       <PageHeader title="Company" description="The name people see, the clock the day runs on, and the currency prices are kept in." />
       <CompanyForm company={{ name: company.name, timeZone: company.timeZone, currency: company.currency }} zones={timeZoneOptions(company.timeZone)} />
+      <CureSettingsForm settings={cure} />
     </>
   );
 }

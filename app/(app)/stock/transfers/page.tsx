@@ -30,6 +30,7 @@ export default async function TransfersPage() {
           kitchen={{ code: kitchen.code, name: kitchen.name }}
           kitchens={kitchens.map((k) => ({ id: k.id, code: k.code, name: k.name }))}
           timeZone={user.timeZone}
+          unitSystem={user.unitSystem}
           canFulfil={can(user, "transfers.fulfil", { kitchenId: kitchen.id })}
           canRequest={can(user, "transfers.request", { kitchenId: kitchen.id })}
         />

@@ -1,16 +1,20 @@
 "use client";
 
-// Transfer requests of the current kitchen: what others ask of it (fulfil or decline, where the
-// user may fulfil here) and what it asked of others (their status), plus "Ask another kitchen".
-import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
-import { ArrowLeftRight, Loader2, Plus } from "lucide-react";
-import { useMemo, useState, type FormEvent } from "react";
+// Transfer requests of the current kitchen: what others ask of it (fulfil, choosing the lot to
+// send, or decline, where the user may fulfil here) and what it asked of others (their status and
+// any decline reason), plus "Ask another kitchen".
+import { useQuery, useQueryClient } from "@tanstack/react-query";
+import { ArrowLeftRight, Loader2, Plus, TriangleAlert } from "lucide-react";
+import { useId, useMemo, useRef, useState, type FormEvent, type ReactNode } from "react";
 import type { Item } from "@/lib/data/items";
-import type { TransferRequest } from "@/lib/data/transfer-requests";
+import type { Movement } from "@/lib/data/ledger";
+import type { TransferLotChoice, TransferLotChoices, TransferRequest } from "@/lib/data/transfer-requests";
 import { apiFetch, jsonInit } from "@/lib/queries/api";
 import { ApiError, newIdempotencyKey, stockKeys } from "@/lib/queries/stock";
-import { unitsFor } from "@/lib/units";
+import { dec, unitsFor, type UnitSystem } from "@/lib/units";
 import { CureCaution } from "@/components/cure/cure-caution";
+import { DATE_KIND_WORDS, expiryBand, quantityText } from "@/components/stock/stock-rows";
+import { Badge } from "@/components/ui/badge";
 import { DataTable, RowHeader, TBody, Td, Th, THead } from "@/components/ui/data-table";
 import { describedBy, FieldError, FormMessage, StatusRegion, TextField } from "@/components/ui/field";
 import { SideSheet, SideSheetFooter } from "@/components/ui/side-sheet";
@@ -38,10 +42,11 @@ function StatusTag({ status }: { status: TransferRequest["status"] }) {
   return <span className={`inline-flex rounded-full border px-2.5 py-0.5 text-sm font-semibold ${s.className}`}>{s.word}</span>;
 }
 
-export function TransfersView({ kitchen, kitchens, timeZone, canFulfil, canRequest }: {
+export function TransfersView({ kitchen, kitchens, timeZone, unitSystem, canFulfil, canRequest }: {
   kitchen: { code: string; name: string };
   kitchens: KitchenOption[];
   timeZone: string;
+  unitSystem: UnitSystem;
   canFulfil: boolean;
   canRequest: boolean;
 }) {
@@ -54,6 +59,7 @@ export function TransfersView({ kitchen, kitchens, timeZone, canFulfil, canReque
   });
   const [asking, setAsking] = useState(false);
   const [declining, setDeclining] = useState<TransferRequest | null>(null);
+  const [fulfilling, setFulfilling] = useState<TransferRequest | null>(null);
   const [notice, setNotice] = useState<{ tone: "success" | "error"; text: string } | null>(null);
   const when = useMemo(() => new Intl.DateTimeFormat("en-GB", { timeZone, dateStyle: "medium", timeStyle: "short" }), [timeZone]);
   const nameOf = (code: string) => kitchens.find((k) => k.code.toUpperCase() === code.toUpperCase())?.name ?? code;
@@ -66,15 +72,6 @@ export function TransfersView({ kitchen, kitchens, timeZone, canFulfil, canReque
     await queryClient.invalidateQueries({ queryKey: key });
     await queryClient.invalidateQueries({ queryKey: stockKeys.all });
   };
-
-  const fulfil = useMutation({
-    mutationFn: (r: TransferRequest) => send(`/api/transfer-requests/${r.id}/fulfil`, { method: "POST", body: {}, key: newIdempotencyKey() }),
-    onSuccess: async (_d, r) => {
-      await refresh();
-      setNotice({ tone: "success", text: `Sent ${r.enteredQuantity} ${r.enteredUnit} of ${r.item.sku} to ${nameOf(r.toKitchen.code)}.` });
-    },
-    onError: (e, r) => setNotice({ tone: "error", text: `The request for ${r.item.sku} was not fulfilled: ${e.message}` }),
-  });
 
   return (
     <div className="space-y-6">
@@ -127,14 +124,12 @@ export function TransfersView({ kitchen, kitchens, timeZone, canFulfil, canReque
                             <button
                               type="button"
                               className="btn-primary"
-                              disabled={fulfil.isPending}
                               aria-label={`Fulfil ${r.item.sku} for ${nameOf(r.toKitchen.code)}`}
                               onClick={() => {
                                 setNotice(null);
-                                fulfil.mutate(r);
+                                setFulfilling(r);
                               }}
                             >
-                              {fulfil.isPending && fulfil.variables?.id === r.id ? <Loader2 aria-hidden className="h-5 w-5 animate-spin" /> : null}
                               Fulfil
                             </button>
                             <button
@@ -210,6 +205,34 @@ export function TransfersView({ kitchen, kitchens, timeZone, canFulfil, canReque
 
       {canFulfil ? (
         <SideSheet
+          open={fulfilling !== null}
+          onClose={() => setFulfilling(null)}
+          title={fulfilling ? `Fulfil ${fulfilling.item.sku}` : "Fulfil"}
+          description={fulfilling ? `${fulfilling.enteredQuantity} ${fulfilling.enteredUnit} asked by ${nameOf(fulfilling.toKitchen.code)}` : undefined}
+        >
+          {fulfilling ? (
+            <FulfilForm
+              request={fulfilling}
+              toName={nameOf(fulfilling.toKitchen.code)}
+              unitSystem={unitSystem}
+              onCancel={() => setFulfilling(null)}
+              onClosed={async (text) => {
+                setFulfilling(null);
+                await refresh();
+                setNotice({ tone: "error", text });
+              }}
+              onDone={async (text) => {
+                setFulfilling(null);
+                await refresh();
+                setNotice({ tone: "success", text });
+              }}
+            />
+          ) : null}
+        </SideSheet>
+      ) : null}
+
+      {canFulfil ? (
+        <SideSheet
           open={declining !== null}
           onClose={() => setDeclining(null)}
           title={declining ? `Decline ${declining.item.sku}` : "Decline"}
@@ -229,6 +252,262 @@ export function TransfersView({ kitchen, kitchens, timeZone, canFulfil, canReque
         </SideSheet>
       ) : null}
     </div>
+  );
+}
+
+const dayFormat = new Intl.DateTimeFormat("en-GB", { timeZone: "UTC", day: "numeric", month: "short", year: "numeric" });
+const formatDay = (d: string) => dayFormat.format(new Date(Date.UTC(Number(d.slice(0, 4)), Number(d.slice(5, 7)) - 1, Number(d.slice(8, 10)))));
+
+/** "use by 12 Mar 2027 · 40 days left", "best before 2 Jan 2027 · expired 3 days ago", "no date". */
+function lotDateText(l: TransferLotChoice): string {
+  if (!l.date) return `received ${formatDay(l.receivedOn)} · no date`;
+  const d = l.daysLeft ?? 0;
+  const left = d < 0 ? `expired ${-d === 1 ? "1 day" : `${-d} days`} ago` : d === 0 ? "last day today" : `${d === 1 ? "1 day" : `${d} days`} left`;
+  return `${l.dateKind ? DATE_KIND_WORDS[l.dateKind] : "dated"} ${formatDay(l.date)} · ${left}`;
+}
+
+/** The expiry band as a word (the days are spelled out beside it): herb, amber within 30 days, ember once past. */
+function expiryBadge(days: number): { tone: "herb" | "amber" | "ember"; word: string } {
+  const tone = expiryBand(days).tone;
+  if (tone === "ember") return { tone, word: "expired" };
+  if (tone === "amber") return { tone, word: "expires soon" };
+  return { tone: "herb", word: "in date" };
+}
+
+const FEFO = "fefo";
+
+/**
+ * Fulfils a request: first expired, first out (the suggested draw, shown lot by lot) or a lot of
+ * the sending kitchen's choosing. One Idempotency-Key per attempt at one choice, so a retry after
+ * a lost answer cannot send twice; a new choice or a definite answer starts a new key.
+ */
+function FulfilForm({ request, toName, unitSystem, onCancel, onDone, onClosed }: {
+  request: TransferRequest;
+  toName: string;
+  unitSystem: UnitSystem;
+  onCancel: () => void;
+  onDone: (text: string) => Promise<void>;
+  /** The request was closed meanwhile (fulfilled or declined by someone else). */
+  onClosed: (text: string) => Promise<void>;
+}) {
+  const id = useId().replace(/:/g, "");
+  const choices = useQuery({
+    queryKey: ["transfer-requests", "lots", request.id],
+    queryFn: () => send<TransferLotChoices>(`/api/transfer-requests/${request.id}/lots`),
+    staleTime: 0,
+  });
+  const [choice, setChoice] = useState(FEFO);
+  const [fields, setFields] = useState<Record<string, string[]>>({});
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  const key = useRef<string | null>(null);
+
+  const c = choices.data;
+  const qty = (value: string) => (c ? quantityText(value, c.item, unitSystem).main : value);
+  const asked = dec(request.quantity);
+  const chosen = c?.lots.find((l) => l.lotId === choice);
+  const fefoShort = c ? dec(c.fefo.short).gt(0) : false;
+  const totalAvailable = c ? c.lots.reduce((sum, l) => sum.plus(dec(l.available)), dec("0")).toFixed() : "0";
+
+  const choose = (value: string) => {
+    setChoice(value);
+    setFields({});
+    setError(null);
+    key.current = null;
+  };
+
+  const submit = async (e: FormEvent) => {
+    e.preventDefault();
+    if (busy) return;
+    setBusy(true);
+    setError(null);
+    setFields({});
+    key.current ??= newIdempotencyKey();
+    try {
+      const done = await send<{ request: TransferRequest; movements: Movement[] }>(`/api/transfer-requests/${request.id}/fulfil`, {
+        method: "POST",
+        body: choice === FEFO ? {} : { lot: choice },
+        key: key.current,
+      });
+      key.current = null;
+      const lots = [...new Set(done.movements.filter((m) => dec(m.delta).lt(0)).map((m) => m.lot.code))];
+      const from = c?.item.trackLots && lots.length ? ` (${lots.length === 1 ? "lot" : "lots"} ${lots.join(", ")})` : "";
+      await onDone(`Sent ${request.enteredQuantity} ${request.enteredUnit} of ${request.item.sku} to ${toName}${from}.`);
+    } catch (e2) {
+      if (!(e2 instanceof ApiError) || e2.status === 0) {
+        // the answer was lost: the same key makes a retry safe
+        setError(`Not fulfilled: ${e2 instanceof Error ? e2.message : "something went wrong."} Try again; it cannot be sent twice.`);
+        return;
+      }
+      key.current = null;
+      if (e2.code === "REQUEST_CLOSED") {
+        await onClosed(`The request for ${request.item.sku} was not fulfilled: ${e2.message}`);
+        return;
+      }
+      if (e2.fields.lot) setFields({ lot: e2.fields.lot });
+      else if (e2.code === "INSUFFICIENT_STOCK") {
+        const a = typeof e2.details.available === "string" ? e2.details.available : null;
+        setError(`Not fulfilled: not enough stock here.${a !== null && c ? ` Only ${qty(a)} available${choice === FEFO ? " in date" : ""}.` : ""}`);
+      } else setError(`Not fulfilled: ${e2.message}`);
+      await choices.refetch();
+    } finally {
+      setBusy(false);
+    }
+  };
+
+  if (choices.isPending) {
+    return (
+      <p role="status" className="flex items-center gap-2 text-brine">
+        <Loader2 aria-hidden className="h-4 w-4 animate-spin" /> Loading this kitchen&rsquo;s lots…
+      </p>
+    );
+  }
+  if (choices.isError) {
+    return (
+      <div className="space-y-5">
+        <FormMessage tone="error">The lots could not be loaded: {choices.error.message}</FormMessage>
+        <SideSheetFooter>
+          <button type="button" className="btn-quiet" onClick={onCancel}>Cancel</button>
+          <button type="button" className="btn-primary" onClick={() => void choices.refetch()}>Try again</button>
+        </SideSheetFooter>
+      </div>
+    );
+  }
+  const data = choices.data;
+  // in-date lots first (in the order the draw takes them), expired ones after
+  const lotOptions = data.item.trackLots ? [...data.lots.filter((l) => !l.expired), ...data.lots.filter((l) => l.expired)] : [];
+
+  return (
+    <form onSubmit={(e) => void submit(e)} noValidate className="space-y-5">
+      {data.item.cure ? <CureCaution /> : null}
+      <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
+        <dt className="text-brine">Asked for</dt>
+        <dd className="num font-semibold tabular-nums">{qty(request.quantity)}</dd>
+        <dt className="text-brine">Available here</dt>
+        <dd className="num font-semibold tabular-nums">{qty(totalAvailable)}</dd>
+        {request.note ? (
+          <>
+            <dt className="text-brine">Note</dt>
+            <dd>{request.note}</dd>
+          </>
+        ) : null}
+      </dl>
+
+      {!data.item.trackLots ? (
+        <p className="text-sm text-pepper-soft">
+          {data.item.sku} is not tracked by lot: the oldest stock here goes first.
+          {fefoShort ? <span className="mt-1 block font-semibold text-ember">{qty(data.fefo.short)} short.</span> : null}
+        </p>
+      ) : (
+        <fieldset aria-describedby={fields.lot?.length ? `${id}-lot-error` : undefined}>
+          <legend className="field-label">Lot to send</legend>
+          <div className="mt-1 space-y-2">
+            <ChoiceCard
+              name={`${id}-lot`}
+              value={FEFO}
+              checked={choice === FEFO}
+              onChange={choose}
+              autoFocus
+              title="First expired, first out (suggested)"
+            >
+              {data.fefo.takes.length ? (
+                <span>
+                  Takes {data.fefo.takes.map((t) => `${qty(t.quantity)} from lot ${t.code}`).join(", then ")}.
+                </span>
+              ) : (
+                <span>No lot in date has stock here.</span>
+              )}
+              {fefoShort ? (
+                <span className="mt-1 flex items-start gap-1 font-semibold text-ember">
+                  <TriangleAlert aria-hidden className="mt-0.5 h-4 w-4 shrink-0" />
+                  {qty(data.fefo.short)} short{data.lots.some((l) => l.expired) ? ": expired lots go only when named below" : ""}.
+                </span>
+              ) : data.lots.some((l) => l.expired) ? (
+                <span className="mt-1 block">Expired lots are skipped.</span>
+              ) : null}
+            </ChoiceCard>
+            {lotOptions.map((l) => {
+              const enough = dec(l.available).gte(asked);
+              const band = l.daysLeft === null ? null : expiryBadge(l.daysLeft);
+              return (
+                <ChoiceCard
+                  key={l.lotId}
+                  name={`${id}-lot`}
+                  value={l.lotId}
+                  checked={choice === l.lotId}
+                  onChange={choose}
+                  disabled={!enough}
+                  title={`Lot ${l.code}`}
+                  badge={band ? <Badge tone={band.tone}>{band.word}</Badge> : null}
+                >
+                  <span className="block">{lotDateText(l)}</span>
+                  <span className="num block tabular-nums">
+                    {qty(l.available)} available{enough ? "" : ": less than asked"}
+                  </span>
+                </ChoiceCard>
+              );
+            })}
+          </div>
+          <FieldError id={`${id}-lot`} errors={fields.lot} />
+        </fieldset>
+      )}
+      {!data.item.trackLots ? <FieldError id={`${id}-lot`} errors={fields.lot} /> : null}
+
+      {chosen?.expired ? (
+        <p role="note" className="flex items-start gap-2 rounded-md border border-ember/30 bg-ember-soft px-3 py-2 text-sm font-medium text-ember">
+          <TriangleAlert aria-hidden className="mt-0.5 h-4 w-4 shrink-0" />
+          <span>Lot {chosen.code} expired on {formatDay(chosen.date!)}. {toName} will not be able to use it, only waste it.</span>
+        </p>
+      ) : null}
+
+      {error ? <FormMessage tone="error">{error}</FormMessage> : null}
+      <SideSheetFooter>
+        <button type="button" className="btn-quiet" onClick={onCancel}>Cancel</button>
+        <button type="submit" className="btn-primary" disabled={busy}>
+          {busy ? <Loader2 aria-hidden className="h-5 w-5 animate-spin" /> : <ArrowLeftRight aria-hidden className="h-5 w-5" />}
+          Send to {toName}
+        </button>
+      </SideSheetFooter>
+    </form>
+  );
+}
+
+/** One choice of the lot list: a radio with its title, badge and details, the whole card clickable. */
+function ChoiceCard({ name, value, checked, onChange, disabled, autoFocus, title, badge, children }: {
+  name: string;
+  value: string;
+  checked: boolean;
+  onChange: (value: string) => void;
+  disabled?: boolean;
+  autoFocus?: boolean;
+  title: string;
+  badge?: ReactNode;
+  children: ReactNode;
+}) {
+  return (
+    <label
+      className={`flex min-h-touch items-start gap-3 rounded-md border px-3 py-2 ${
+        disabled ? "cursor-not-allowed border-salt-edge bg-salt-deep" : checked ? "cursor-pointer border-paprika bg-paprika-soft" : "cursor-pointer border-salt-edge bg-white"
+      }`}
+    >
+      <input
+        type="radio"
+        name={name}
+        value={value}
+        checked={checked}
+        disabled={disabled}
+        data-autofocus={autoFocus ? "" : undefined}
+        onChange={() => onChange(value)}
+        className="mt-1 h-5 w-5 shrink-0 accent-paprika"
+      />
+      <span className="min-w-0 flex-1">
+        <span className="flex flex-wrap items-center gap-2 font-semibold text-pepper">
+          {title}
+          {badge}
+        </span>
+        <span className="mt-0.5 block text-sm text-pepper-soft">{children}</span>
+      </span>
+    </label>
   );
 }
 

@@ -1,0 +1,488 @@
+// Batch plans and reservations.
+// - A plan turns a recipe version and a meat block (or links x link weight) into the exact bill of
+//   materials in each item's stock unit (lib/recipes/bom), with cure rounded to the kitchen scale
+//   toward compliance and the verdict on the rounded amounts; a plan over a statutory maximum is
+//   refused. Casing follows from the filling mass (lib/casing).
+// - Shortages: each line against the kitchen's available stock in lots still in date on the
+//   production day; suggestions: a transfer from a kitchen whose available stock, less its own
+//   planned use in the next 7 days and its par level, has room, and buying the rest.
+// - Reserving allocates lots first-expired-first-out (dated lots by date, then undated by receipt;
+//   lots expiring on or before the production day are skipped), splitting across lots, all or
+//   nothing per batch, under row locks on the balances so two batches never hold the same stock.
+import "server-only";
+import type { Knex } from "knex";
+import { db } from "../../db/client";
+import type { ItemRow, KitchenRow } from "../../db/types";
+import { assertCan } from "../auth/assert";
+import type { CurrentUser } from "../auth/current-user";
+import { casingNeed, CasingInputError } from "../casing/calculate";
+import { CURE_CAUTION, type CureCalculation } from "../cure";
+import { AppError, conflict, notFound, validation } from "../http/errors";
+import { billOfMaterials, BomLineError, roundCure } from "../recipes/bom";
+import { convert, Dec, dec, plain, toStored, UnitError, ZERO } from "../units";
+import type { BatchCreateInput } from "../validation/batches";
+import { casingBasisForItem } from "./casing-calculation";
+import { getCureSettings } from "./companies";
+import { loadItemForLedger } from "./items-for-ledger";
+import { inTransaction } from "./ledger";
+import { loadVersionSpec } from "./recipes";
+
+export type BatchStatus = "planned" | "reserved" | "produced" | "on_hold" | "cancelled";
+
+export interface BatchLine {
+  position: number;
+  role: "cure" | "ingredient" | "casing";
+  item: { id: string; sku: string; name: string; category: ItemRow["category"]; unit: ItemRow["stock_unit"] };
+  /** to weigh or use, in the stock unit (cure rounded to the scale toward compliance) */
+  quantity: string;
+  exactQuantity: string;
+  rounding: "exact" | "down" | "up";
+  reserved: string;
+  lots: { lotId: string; code: string; date: string | null; dateKind: string | null; quantity: string }[];
+  /** the kitchen's available stock in lots still in date on the production day (this batch's own reservations not counted) */
+  available: string;
+  /** what reserving would still lack; null when nothing is short */
+  short: string | null;
+  suggestions: ({ kind: "transfer"; kitchen: { id: string; code: string }; quantity: string } | { kind: "buy"; quantity: string })[];
+}
+
+export interface Batch {
+  id: string;
+  kitchen: { id: string; code: string; name: string };
+  recipe: { id: string; code: string; name: string; version: number };
+  plannedFor: string;
+  status: BatchStatus;
+  meatBlockG: string;
+  fillingG: string;
+  links: { count: number; weightG: string } | null;
+  casing: { itemId: string; metres: string; putUps: string | null; putUpsToOpen: number | null; source: string } | null;
+  lines: BatchLine[];
+  cure: CureCalculation | null;
+  /** lines still short of stock (0: everything can be reserved, or is) */
+  shortLines: number;
+  batchCode: string | null;
+  note: string;
+  notes: string[];
+  caution: string | null;
+  createdAt: string;
+  createdBy: { id: string; name: string } | null;
+}
+
+interface BatchRow {
+  id: string; company_id: string; kitchen_id: string; recipe_id: string; recipe_version_id: string; planned_for: string;
+  meat_block_g: string; link_count: number | null; link_weight_g: string | null; casing_item_id: string | null; status: BatchStatus;
+  casing_metres: string | null; casing_source: string | null;
+  cure_check: CureCalculation | null; note: string; batch_code: string | null; created_by: string | null; created_at: Date;
+}
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+async function kitchenByCode(k: Knex | Knex.Transaction, actor: CurrentUser, code: string): Promise<KitchenRow> {
+  const row: KitchenRow | undefined = await k("kitchens").where({ company_id: actor.companyId }).whereRaw("upper(code) = upper(?)", [code]).first();
+  if (!row) throw notFound("Kitchen");
+  return row;
+}
+
+async function companyToday(k: Knex | Knex.Transaction, companyId: string): Promise<string> {
+  const r = await k.raw<{ rows: { today: string }[] }>(
+    "select to_char((now() at time zone c.time_zone)::date, 'YYYY-MM-DD') as today from companies c where c.id = ?",
+    [companyId],
+  );
+  return r.rows[0]!.today;
+}
+
+const addDays = (isoDate: string, days: number) => {
+  const d = new Date(`${isoDate}T00:00:00Z`);
+  d.setUTCDate(d.getUTCDate() + days);
+  return d.toISOString().slice(0, 10);
+};
+
+function massIn(amount: { quantity: string; unit: string }, to: string, field: string): Dec {
+  try {
+    return convert(amount.quantity, amount.unit, to);
+  } catch (e) {
+    if (e instanceof UnitError) throw validation({ [`${field}.unit`]: [e.message] });
+    throw e;
+  }
+}
+
+// ---------------------------------------------------------------------------------------------
+// Planning
+
+export async function createBatch(actor: CurrentUser, input: BatchCreateInput): Promise<Batch> {
+  const k = db();
+  const kitchen = await kitchenByCode(k, actor, input.kitchen);
+  assertCan(actor, "planning.manage", { kitchenId: kitchen.id });
+  if (kitchen.archived_at) throw validation({ kitchen: [`Kitchen ${kitchen.code} is archived.`] });
+  const today = await companyToday(k, actor.companyId);
+  if (input.plannedFor < today) throw validation({ plannedFor: [`Plan for today (${today}) or later.`] });
+
+  const recipe: { id: string; current_version: number; archived_at: Date | null; name: string } | undefined = await k("recipes")
+    .where({ company_id: actor.companyId })
+    .where(UUID.test(input.recipe) ? { id: input.recipe } : { code: input.recipe.toUpperCase() })
+    .first("id", "current_version", "archived_at", "name");
+  if (!recipe) throw notFound("Recipe");
+  if (recipe.archived_at) throw validation({ recipe: [`${recipe.name} is archived.`] });
+  const versionNumber = input.version ?? recipe.current_version;
+  const versionRow: { id: string } | undefined = await k("recipe_versions").where({ recipe_id: recipe.id, version: versionNumber }).first("id");
+  if (!versionRow) throw validation({ version: [`${recipe.name} has no version ${versionNumber}.`] });
+  const { version, spec } = await loadVersionSpec(k, actor.companyId, versionRow.id);
+
+  // the meat block: given, or from links (filling = count x weight; meat = filling / filling per g of meat)
+  let meatG: Dec;
+  if (input.meatBlock) {
+    meatG = massIn(input.meatBlock, "g", "meatBlock");
+  } else {
+    const perKg = billOfMaterials(spec, dec("1000")).fillingGrams;
+    meatG = massIn(input.links!.weight, "g", "links.weight").times(String(input.links!.count)).times("1000").div(perKg);
+  }
+  meatG = dec(toStored(meatG));
+  if (meatG.lte(ZERO)) throw validation({ meatBlock: ["The meat block must be more than zero."] });
+
+  let bom;
+  try {
+    bom = billOfMaterials(spec, meatG);
+  } catch (e) {
+    if (e instanceof BomLineError) throw validation({ recipe: [`Line ${e.position}: ${e.message}`] });
+    throw e;
+  }
+  const settings = await getCureSettings(actor);
+  const rounded = roundCure(spec, bom, { table: settings.regulatoryTable, scaleResolutionG: settings.scaleResolutionG });
+  if (rounded?.check.blocked) {
+    const over = rounded.check.checks.filter((c) => !c.within && c.severity === "block").map((c) => `${c.substance} ${c.ppm} ppm over the ${c.limitPpm} ppm maximum (${c.entry})`);
+    throw new AppError(422, "VALIDATION", "The cure is over a statutory maximum: this plan cannot be saved.", {
+      fields: { recipe: [`${over.join("; ")}. Correct the recipe's cure.`] },
+      cure: rounded.check,
+    });
+  }
+
+  // the casing: the batch's choice, or the recipe's, inside the recipe's calibre range
+  const casingRef = input.casing ?? version.casing_item_id ?? undefined;
+  let casingLine: { item: ItemRow; quantity: Dec; metres: Dec; source: string } | null = null;
+  if (casingRef) {
+    const { row } = await loadItemForLedger(k, actor.companyId, casingRef);
+    if (row.category !== "casing") throw validation({ casing: [`${row.name} is not a casing.`] });
+    const lo = version.casing_calibre_min_mm;
+    const hi = version.casing_calibre_max_mm;
+    if (lo && hi && (dec(row.calibre_min_mm!).lt(lo) || dec(row.calibre_max_mm!).gt(hi))) {
+      throw validation({ casing: [`${row.name} (${plain(dec(row.calibre_min_mm!))}-${plain(dec(row.calibre_max_mm!))} mm) is outside the recipe's calibre range ${plain(dec(lo))}-${plain(dec(hi))} mm.`] });
+    }
+    const { basis, source } = casingBasisForItem(row, {}, "casing");
+    let need;
+    try {
+      need = casingNeed(bom.fillingGrams.div(1000), basis);
+    } catch (e) {
+      if (e instanceof CasingInputError) throw validation({ casing: [e.message] });
+      throw e;
+    }
+    const quantity = row.stock_unit === "m" ? need.metres : row.stock_unit === "pc" ? need.putUps : null;
+    if (!quantity) throw validation({ casing: [`${row.name} is stocked in ${row.stock_unit} without a length per piece: the casing cannot be planned from it.`] });
+    casingLine = { item: row, quantity, metres: need.metres, source };
+  }
+
+  const id = await k.transaction(async (trx) => {
+    const [b] = await trx("batches")
+      .insert({
+        company_id: actor.companyId, kitchen_id: kitchen.id, recipe_id: recipe.id, recipe_version_id: version.id, planned_for: input.plannedFor,
+        meat_block_g: toStored(meatG), link_count: input.links?.count ?? null,
+        link_weight_g: input.links ? toStored(massIn(input.links.weight, "g", "links.weight")) : null,
+        casing_item_id: casingLine?.item.id ?? null, casing_metres: casingLine ? toStored(casingLine.metres) : null, casing_source: casingLine?.source ?? null,
+        status: "planned", cure_check: rounded ? JSON.stringify(rounded.check) : null,
+        note: input.note, created_by: actor.id,
+      })
+      .returning<{ id: string }[]>("id");
+    const lines = bom.lines.map((l) => {
+      const cureGrams = rounded?.grams.get(l.position);
+      return {
+        company_id: actor.companyId, batch_id: b!.id, position: l.position, item_id: l.item.id, role: l.item.category === "cure" ? "cure" : "ingredient",
+        quantity: toStored(cureGrams ?? l.quantity), exact_quantity: toStored(l.quantity), rounding: rounded?.rounding.get(l.position) ?? "exact",
+      };
+    });
+    if (casingLine) {
+      lines.push({
+        company_id: actor.companyId, batch_id: b!.id, position: bom.lines.length + 1, item_id: casingLine.item.id, role: "casing",
+        quantity: toStored(casingLine.quantity), exact_quantity: toStored(casingLine.quantity), rounding: "exact",
+      });
+    }
+    if (lines.length) await trx("batch_lines").insert(lines);
+    return b!.id;
+  });
+  return getBatch(actor, id);
+}
+
+// ---------------------------------------------------------------------------------------------
+// Reading
+
+async function loadBatchRows(k: Knex | Knex.Transaction, actor: CurrentUser, filter: (q: Knex.QueryBuilder) => void): Promise<BatchRow[]> {
+  const q = k("batches").where({ company_id: actor.companyId });
+  filter(q);
+  const rows: (BatchRow & { planned_day: string })[] = await q
+    .orderBy([{ column: "batches.planned_for" }, { column: "batches.created_at" }])
+    .select("*", k.raw("to_char(planned_for, 'YYYY-MM-DD') as planned_day"));
+  return rows.map((r) => ({ ...r, planned_for: r.planned_day }));
+}
+
+/** Usable available per item in a kitchen on a day: lots still in date that day, on hand less reserved. */
+async function usableAvailable(k: Knex | Knex.Transaction, kitchenIds: string[], itemIds: string[], day: string): Promise<Map<string, Dec>> {
+  if (!kitchenIds.length || !itemIds.length) return new Map();
+  const rows: { kitchen_id: string; item_id: string; available: string }[] = await k("stock_balances as b")
+    .join("lots as l", "l.id", "b.lot_id")
+    .whereIn("b.kitchen_id", kitchenIds)
+    .whereIn("b.item_id", itemIds)
+    .where((w) => w.whereNull("l.date").orWhere("l.date", ">", day))
+    .groupBy("b.kitchen_id", "b.item_id")
+    .select("b.kitchen_id", "b.item_id", k.raw("greatest(sum(b.on_hand - b.reserved), 0)::text as available"));
+  return new Map(rows.map((r) => [`${r.kitchen_id}:${r.item_id}`, dec(r.available)]));
+}
+
+async function describeBatches(k: Knex | Knex.Transaction, actor: CurrentUser, rows: BatchRow[]): Promise<Batch[]> {
+  if (!rows.length) return [];
+  const ids = rows.map((r) => r.id);
+  const lines: { id: string; batch_id: string; position: number; role: BatchLine["role"]; item_id: string; quantity: string; exact_quantity: string; rounding: BatchLine["rounding"]; sku: string; name: string; category: ItemRow["category"]; stock_unit: ItemRow["stock_unit"] }[] =
+    await k("batch_lines as bl").join("items as i", "i.id", "bl.item_id").whereIn("bl.batch_id", ids).orderBy(["bl.batch_id", "bl.position"])
+      .select("bl.id", "bl.batch_id", "bl.position", "bl.role", "bl.item_id", "bl.quantity", "bl.exact_quantity", "bl.rounding", "i.sku", "i.name", "i.category", "i.stock_unit");
+  const reservations: { batch_line_id: string; lot_id: string; quantity: string; code: string; date: string | null; date_kind: string | null }[] = await k("reservations as r")
+    .join("lots as l", "l.id", "r.lot_id").whereIn("r.batch_id", ids).orderByRaw("l.date is null, l.date, l.received_on, l.id")
+    .select("r.batch_line_id", "r.lot_id", "r.quantity", "l.code", k.raw("to_char(l.date, 'YYYY-MM-DD') as date"), "l.date_kind");
+  const kitchens: KitchenRow[] = await k("kitchens").where({ company_id: actor.companyId });
+  const recipes: { id: string; recipe_id: string; version: number; code: string; name: string }[] = await k("recipe_versions as v").join("recipes as r", "r.id", "v.recipe_id")
+    .whereIn("v.id", rows.map((r) => r.recipe_version_id)).select("v.id", "v.recipe_id", "v.version", "r.code", "r.name");
+  const people: { id: string; name: string }[] = await k("app_users").whereIn("id", rows.map((r) => r.created_by).filter((x): x is string => !!x)).select("id", "name");
+  const itemIds = [...new Set(lines.map((l) => l.item_id))];
+  const activeKitchens = kitchens.filter((kk) => !kk.archived_at).map((kk) => kk.id);
+  const today = await companyToday(k, actor.companyId);
+
+  // per production day: usable stock everywhere, and other kitchens' planned use and par levels
+  const days = [...new Set(rows.map((r) => r.planned_for))];
+  const availableOn = new Map<string, Map<string, Dec>>();
+  for (const day of days) availableOn.set(day, await usableAvailable(k, activeKitchens, itemIds, day));
+  const plannedUse: { kitchen_id: string; item_id: string; quantity: string }[] = itemIds.length
+    ? await k("batch_lines as bl").join("batches as b", "b.id", "bl.batch_id")
+        .where("b.company_id", actor.companyId).where("b.status", "planned")
+        .whereBetween("b.planned_for", [today, addDays(today, 7)]).whereIn("bl.item_id", itemIds)
+        .groupBy("b.kitchen_id", "bl.item_id").select("b.kitchen_id", "bl.item_id", k.raw("sum(bl.quantity)::text as quantity"))
+    : [];
+  const plannedUseOf = new Map(plannedUse.map((p) => [`${p.kitchen_id}:${p.item_id}`, dec(p.quantity)]));
+  const pars: { kitchen_id: string; item_id: string; par_level: string | null }[] = itemIds.length
+    ? await k("stock_levels").where({ company_id: actor.companyId }).whereIn("item_id", itemIds).select("kitchen_id", "item_id", "par_level")
+    : [];
+  const parOf = new Map(pars.map((p) => [`${p.kitchen_id}:${p.item_id}`, dec(p.par_level ?? "0")]));
+
+  return rows.map((b) => {
+    const kitchen = kitchens.find((kk) => kk.id === b.kitchen_id)!;
+    const recipe = recipes.find((r) => r.id === b.recipe_version_id)!;
+    const creator = people.find((p) => p.id === b.created_by);
+    const available = availableOn.get(b.planned_for)!;
+    const open = b.status === "planned" || b.status === "reserved";
+    const batchLines = lines.filter((l) => l.batch_id === b.id).map((l): BatchLine => {
+      const lots = reservations.filter((r) => r.batch_line_id === l.id);
+      const reserved = lots.reduce((s, r) => s.plus(dec(r.quantity)), ZERO);
+      const need = Dec.max(dec(l.quantity).minus(reserved), ZERO);
+      const here = available.get(`${b.kitchen_id}:${l.item_id}`) ?? ZERO;
+      const short = open && need.gt(here) ? need.minus(here) : null;
+      const suggestions: BatchLine["suggestions"] = [];
+      if (short) {
+        let left = short;
+        for (const other of kitchens) {
+          if (other.id === b.kitchen_id || other.archived_at || left.lte(0)) continue;
+          const key = `${other.id}:${l.item_id}`;
+          const room = (available.get(key) ?? ZERO).minus(plannedUseOf.get(key) ?? ZERO).minus(parOf.get(key) ?? ZERO);
+          if (room.lte(0)) continue;
+          const take = Dec.min(room, left);
+          suggestions.push({ kind: "transfer", kitchen: { id: other.id, code: other.code }, quantity: plain(take) });
+          left = left.minus(take);
+        }
+        if (left.gt(0)) suggestions.push({ kind: "buy", quantity: plain(left) });
+      }
+      return {
+        position: l.position, role: l.role,
+        item: { id: l.item_id, sku: l.sku, name: l.name, category: l.category, unit: l.stock_unit },
+        quantity: plain(dec(l.quantity)), exactQuantity: plain(dec(l.exact_quantity)), rounding: l.rounding, reserved: plain(reserved),
+        lots: lots.map((r) => ({ lotId: r.lot_id, code: r.code, date: r.date, dateKind: r.date_kind, quantity: plain(dec(r.quantity)) })),
+        available: plain(here), short: short ? plain(short) : null, suggestions,
+      };
+    });
+    const fillingG = batchLines.filter((l) => l.role !== "casing" && l.item.unit === "g").reduce((s, l) => s.plus(dec(l.exactQuantity)), dec(b.meat_block_g));
+    const casingLine = batchLines.find((l) => l.role === "casing");
+    const notes: string[] = [];
+    if (!casingLine) notes.push("No casing item is chosen for this batch: choose one to plan and reserve casing.");
+    return {
+      id: b.id,
+      kitchen: { id: kitchen.id, code: kitchen.code, name: kitchen.name },
+      recipe: { id: recipe.recipe_id, code: recipe.code, name: recipe.name, version: recipe.version },
+      plannedFor: b.planned_for,
+      status: b.status,
+      meatBlockG: plain(dec(b.meat_block_g)),
+      fillingG: plain(fillingG.toDecimalPlaces(6)),
+      links: b.link_count ? { count: b.link_count, weightG: plain(dec(b.link_weight_g!)) } : null,
+      casing: casingLine
+        ? {
+            itemId: casingLine.item.id,
+            metres: plain(dec(b.casing_metres ?? "0").toDecimalPlaces(4)),
+            putUps: casingLine.item.unit === "pc" ? plain(dec(casingLine.quantity).toDecimalPlaces(4)) : null,
+            putUpsToOpen: casingLine.item.unit === "pc" ? dec(casingLine.quantity).ceil().toNumber() : null,
+            source: b.casing_source ?? "",
+          }
+        : null,
+      lines: batchLines,
+      cure: b.cure_check,
+      shortLines: batchLines.filter((l) => l.short).length,
+      batchCode: b.batch_code,
+      note: b.note,
+      notes,
+      caution: b.cure_check ? CURE_CAUTION : null,
+      createdAt: b.created_at.toISOString(),
+      createdBy: b.created_by ? { id: b.created_by, name: creator?.name ?? "Former user" } : null,
+    };
+  });
+}
+
+export async function getBatch(actor: CurrentUser, id: string): Promise<Batch> {
+  assertCan(actor, "planning.read");
+  const k = db();
+  const rows = await loadBatchRows(k, actor, (q) => q.where({ id }));
+  if (!rows.length) throw notFound("Batch");
+  return (await describeBatches(k, actor, rows))[0]!;
+}
+
+export async function listBatches(actor: CurrentUser, opts: { kitchen?: string; from?: string; to?: string; status?: BatchStatus }): Promise<Batch[]> {
+  assertCan(actor, "planning.read");
+  const k = db();
+  const kitchen = opts.kitchen ? await kitchenByCode(k, actor, opts.kitchen) : null;
+  const rows = await loadBatchRows(k, actor, (q) => {
+    if (kitchen) q.where({ kitchen_id: kitchen.id });
+    if (opts.from) q.where("planned_for", ">=", opts.from);
+    if (opts.to) q.where("planned_for", "<=", opts.to);
+    if (opts.status) q.where({ status: opts.status });
+  });
+  return describeBatches(k, actor, rows);
+}
+
+// ---------------------------------------------------------------------------------------------
+// Reserving and releasing
+
+interface Shortfall { position: number; sku: string; needed: string; available: string; unit: string }
+
+/** Reserves what a batch still lacks, in its own transaction; returns the lines short (nothing reserved then). */
+async function reserveIn(trx: Knex.Transaction, actor: CurrentUser, batch: BatchRow): Promise<Shortfall[]> {
+  const lines: { id: string; position: number; item_id: string; quantity: string; sku: string; stock_unit: string; reserved: string }[] = await trx("batch_lines as bl")
+    .join("items as i", "i.id", "bl.item_id")
+    .where("bl.batch_id", batch.id)
+    .orderBy("bl.item_id") // a fixed lock order across batches
+    .select("bl.id", "bl.position", "bl.item_id", "bl.quantity", "i.sku", "i.stock_unit",
+      trx.raw("coalesce((select sum(r.quantity) from reservations r where r.batch_line_id = bl.id), 0)::text as reserved"));
+  const plan: { lineId: string; itemId: string; lotId: string; take: Dec }[] = [];
+  const short: Shortfall[] = [];
+  for (const line of lines) {
+    let need = dec(line.quantity).minus(dec(line.reserved));
+    if (need.lte(0)) continue;
+    const candidates: { lot_id: string; available: string }[] = await trx("stock_balances as b")
+      .join("lots as l", "l.id", "b.lot_id")
+      .where({ "b.kitchen_id": batch.kitchen_id, "b.item_id": line.item_id })
+      .whereRaw("b.on_hand - b.reserved > 0")
+      .where((w) => w.whereNull("l.date").orWhere("l.date", ">", batch.planned_for))
+      .orderByRaw("l.date is null, l.date, l.received_on, l.created_at, l.id")
+      .forUpdate("b")
+      .select("b.lot_id", trx.raw("(b.on_hand - b.reserved)::text as available"));
+    const wanted = need;
+    for (const c of candidates) {
+      if (need.lte(0)) break;
+      const take = Dec.min(dec(c.available), need);
+      plan.push({ lineId: line.id, itemId: line.item_id, lotId: c.lot_id, take });
+      need = need.minus(take);
+    }
+    if (need.gt(0)) short.push({ position: line.position, sku: line.sku, needed: plain(wanted), available: plain(wanted.minus(need)), unit: line.stock_unit });
+  }
+  if (short.length) return short;
+  for (const p of plan) {
+    const updated = await trx("stock_balances")
+      .where({ kitchen_id: batch.kitchen_id, lot_id: p.lotId })
+      .whereRaw("on_hand - reserved >= ?::numeric", [toStored(p.take)])
+      .update({ reserved: trx.raw("reserved + ?::numeric", [toStored(p.take)]), updated_at: trx.fn.now() });
+    if (updated !== 1) throw conflict("Stock changed while reserving; try again."); // cannot happen: the rows are locked
+    await trx.raw(
+      `insert into reservations (company_id, batch_id, batch_line_id, kitchen_id, item_id, lot_id, quantity, created_by)
+       values (?, ?, ?, ?, ?, ?, ?::numeric, ?)
+       on conflict (batch_line_id, lot_id) do update set quantity = reservations.quantity + excluded.quantity`,
+      [actor.companyId, batch.id, p.lineId, batch.kitchen_id, p.itemId, p.lotId, toStored(p.take), actor.id],
+    );
+  }
+  await trx("batches").where({ id: batch.id }).update({ status: "reserved", updated_at: trx.fn.now() });
+  return [];
+}
+
+async function lockBatch(trx: Knex.Transaction, actor: CurrentUser, id: string, action: "planning.manage"): Promise<BatchRow> {
+  const rows = await loadBatchRows(trx, actor, (q) => q.where({ id }).forUpdate());
+  const batch = rows[0];
+  if (!batch) throw notFound("Batch");
+  assertCan(actor, action, { kitchenId: batch.kitchen_id });
+  return batch;
+}
+
+const shortageError = (short: Shortfall[]) =>
+  new AppError(409, "SHORTAGE", `Not enough stock to reserve: ${short.map((s) => `${s.sku} needs ${s.needed} ${s.unit}, ${s.available} ${s.unit} can be reserved`).join("; ")}. Nothing was reserved.`, { lines: short });
+
+/** Reserves every line of a batch, all or nothing (409 SHORTAGE names the lines short). */
+export async function reserveBatch(actor: CurrentUser, id: string): Promise<Batch> {
+  await inTransaction(async (trx) => {
+    const batch = await lockBatch(trx, actor, id, "planning.manage");
+    if (batch.status !== "planned" && batch.status !== "reserved") throw conflict(`This batch is ${batch.status}: only a planned batch can be reserved.`);
+    const short = await reserveIn(trx, actor, batch);
+    if (short.length) throw shortageError(short);
+  });
+  return getBatch(actor, id);
+}
+
+/** Reserves every planned batch of a kitchen in a date range; each batch all or nothing. */
+export async function reserveAll(actor: CurrentUser, input: { kitchen: string; from: string; to: string }) {
+  const kitchen = await kitchenByCode(db(), actor, input.kitchen);
+  assertCan(actor, "planning.manage", { kitchenId: kitchen.id });
+  const ids: { id: string }[] = await db()("batches").where({ company_id: actor.companyId, kitchen_id: kitchen.id })
+    .whereIn("status", ["planned", "reserved"]).whereBetween("planned_for", [input.from, input.to]).orderBy(["planned_for", "created_at"]).select("id");
+  const results: { batchId: string; reserved: boolean; short: Shortfall[] }[] = [];
+  for (const { id } of ids) {
+    const short = await inTransaction(async (trx) => {
+      const batch = await lockBatch(trx, actor, id, "planning.manage");
+      if (batch.status !== "planned" && batch.status !== "reserved") return [];
+      const s = await reserveIn(trx, actor, batch);
+      if (s.length) throw Object.assign(shortageError(s), { short: s });
+      return s;
+    }).catch((e: unknown) => {
+      if (e instanceof AppError && e.code === "SHORTAGE") return (e as AppError & { short: Shortfall[] }).short;
+      throw e;
+    });
+    results.push({ batchId: id, reserved: short.length === 0, short });
+  }
+  return { batches: results };
+}
+
+async function releaseIn(trx: Knex.Transaction, batch: BatchRow) {
+  const held: { kitchen_id: string; lot_id: string; quantity: string }[] = await trx("reservations").where({ batch_id: batch.id }).orderBy("lot_id").select("kitchen_id", "lot_id", "quantity");
+  for (const r of held) {
+    await trx("stock_balances").where({ kitchen_id: r.kitchen_id, lot_id: r.lot_id })
+      .update({ reserved: trx.raw("reserved - ?::numeric", [r.quantity]), updated_at: trx.fn.now() });
+  }
+  await trx("reservations").where({ batch_id: batch.id }).delete();
+}
+
+/** Gives a batch's reserved lots back to available stock; the batch stays planned. */
+export async function releaseBatch(actor: CurrentUser, id: string): Promise<Batch> {
+  await inTransaction(async (trx) => {
+    const batch = await lockBatch(trx, actor, id, "planning.manage");
+    if (batch.status !== "planned" && batch.status !== "reserved") throw conflict(`This batch is ${batch.status}: there is nothing to release.`);
+    await releaseIn(trx, batch);
+    await trx("batches").where({ id: batch.id }).update({ status: "planned", updated_at: trx.fn.now() });
+  });
+  return getBatch(actor, id);
+}
+
+/** Cancels a planned batch and releases what it held. */
+export async function cancelBatch(actor: CurrentUser, id: string): Promise<Batch> {
+  await inTransaction(async (trx) => {
+    const batch = await lockBatch(trx, actor, id, "planning.manage");
+    if (batch.status !== "planned" && batch.status !== "reserved") throw conflict(`This batch is ${batch.status}: only a planned batch can be cancelled.`);
+    await releaseIn(trx, batch);
+    await trx("batches").where({ id: batch.id }).update({ status: "cancelled", updated_at: trx.fn.now() });
+  });
+  return getBatch(actor, id);
+}

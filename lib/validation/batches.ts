@@ -1,0 +1,110 @@
+// Batch plan requests. No server imports: the planner's forms share these.
+import { z } from "zod";
+import { decimalString, uuid } from "./common";
+import { cureCalculationResponse } from "./cure";
+
+const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Use a date as yyyy-mm-dd.");
+const amount = (what: string) =>
+  z.object({
+    quantity: decimalString({ scale: 12 }).refine((q) => !/^0*(\.0*)?$/.test(q), { error: `The ${what} must be more than zero.` }),
+    unit: z.string().trim().min(1, "Enter the unit, e.g. kg or lb.").max(40),
+  });
+
+export const batchCreateInput = z
+  .object({
+    kitchen: z.string().trim().min(1, "Name the kitchen by its code.").max(40),
+    recipe: z.string().trim().min(1, "Choose the recipe (id or code).").max(100),
+    /** default: the recipe's current version */
+    version: z.number({ error: "Give the version as a whole number." }).int().positive().optional(),
+    plannedFor: isoDate,
+    /** the meat block's green weight ... */
+    meatBlock: amount("meat block").optional(),
+    /** ... or links: count x weight is the filling mass, from which the meat block follows */
+    links: z.object({ count: z.number().int().positive().max(1_000_000), weight: amount("link weight") }).optional(),
+    /** a casing item other than the recipe's (within its calibre range) */
+    casing: z.string().trim().min(1).max(80).optional(),
+    note: z.string().trim().max(1000).default(""),
+  })
+  .superRefine((v, ctx) => {
+    if (!v.meatBlock && !v.links) ctx.addIssue({ code: "custom", path: ["meatBlock"], message: "Give the meat block weight, or a link count and link weight." });
+    if (v.meatBlock && v.links) ctx.addIssue({ code: "custom", path: ["links"], message: "Give the meat block or the links, not both." });
+  });
+export type BatchCreateInput = z.infer<typeof batchCreateInput>;
+
+export const batchListQuery = z.object({
+  kitchen: z.string().trim().min(1).max(40).optional(),
+  from: isoDate.optional(),
+  to: isoDate.optional(),
+  status: z.enum(["planned", "reserved", "produced", "on_hold", "cancelled"]).optional(),
+});
+
+export const batchReserveAllInput = z.object({
+  kitchen: z.string().trim().min(1, "Name the kitchen by its code.").max(40),
+  from: isoDate,
+  to: isoDate,
+});
+
+export const batchIdList = z.array(uuid);
+
+// ---------------------------------------------------------------------------------------------
+// Answers (lib/data/batches.ts Batch); a drift fails `tsc` in lib/http/openapi.ts.
+const decimal = z.string().meta({ description: "Exact decimal string." });
+const kitchenRef = z.object({ id: z.string(), code: z.string() });
+
+export const batchResponse = z
+  .object({
+    id: z.string(),
+    kitchen: z.object({ id: z.string(), code: z.string(), name: z.string() }),
+    recipe: z.object({ id: z.string(), code: z.string(), name: z.string(), version: z.number().int() }),
+    plannedFor: z.string().meta({ example: "2026-12-07" }),
+    status: z.enum(["planned", "reserved", "produced", "on_hold", "cancelled"]),
+    meatBlockG: decimal,
+    fillingG: decimal.meta({ description: "Meat block plus the meat-block lines, grams: what goes into the casing." }),
+    links: z.object({ count: z.number().int(), weightG: decimal }).nullable(),
+    casing: z
+      .object({ itemId: z.string(), metres: decimal, putUps: decimal.nullable(), putUpsToOpen: z.number().int().nullable(), source: z.string() })
+      .nullable(),
+    lines: z.array(
+      z.object({
+        position: z.number().int(),
+        role: z.enum(["cure", "ingredient", "casing"]),
+        item: z.object({ id: z.string(), sku: z.string(), name: z.string(), category: z.enum(["casing", "cure", "spice", "ingredient"]), unit: z.enum(["g", "m", "ml", "pc"]) }),
+        quantity: decimal.meta({ description: "To weigh or use, in the stock unit; cure rounded to the kitchen scale toward compliance." }),
+        exactQuantity: decimal,
+        rounding: z.enum(["exact", "down", "up"]),
+        reserved: decimal,
+        lots: z.array(z.object({ lotId: z.string(), code: z.string(), date: z.string().nullable(), dateKind: z.string().nullable(), quantity: decimal })),
+        available: decimal.meta({ description: "The kitchen's available stock in lots still in date on the production day." }),
+        short: decimal.nullable().meta({ description: "What reserving would still lack; null when nothing is short." }),
+        suggestions: z.array(
+          z.union([
+            z.object({ kind: z.literal("transfer"), kitchen: kitchenRef, quantity: decimal }),
+            z.object({ kind: z.literal("buy"), quantity: decimal }),
+          ]),
+        ),
+      }),
+    ),
+    cure: cureCalculationResponse.nullable().meta({ description: "The cure verdict on the rounded amounts, as planned." }),
+    shortLines: z.number().int(),
+    batchCode: z.string().nullable(),
+    note: z.string(),
+    notes: z.array(z.string()),
+    caution: z.string().nullable(),
+    createdAt: z.string(),
+    createdBy: z.object({ id: z.string(), name: z.string() }).nullable(),
+  })
+  .meta({ id: "Batch" });
+
+export const batchListResponse = z.object({ batches: z.array(batchResponse) }).meta({ id: "BatchList" });
+
+export const reserveAllResponse = z
+  .object({
+    batches: z.array(
+      z.object({
+        batchId: z.string(),
+        reserved: z.boolean(),
+        short: z.array(z.object({ position: z.number().int(), sku: z.string(), needed: decimal, available: decimal, unit: z.string() })),
+      }),
+    ),
+  })
+  .meta({ id: "ReserveAllResult" });
