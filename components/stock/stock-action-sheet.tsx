@@ -5,7 +5,7 @@
 // shows 422 field messages beside their fields and 409 refusals (short stock, expired lot) in an
 // alert; on success the owner closes the sheet, refetches the stock and confirms.
 import { useQuery, useQueryClient } from "@tanstack/react-query";
-import { Loader2 } from "lucide-react";
+import { AlertTriangle, Loader2 } from "lucide-react";
 import { useId, useMemo, useRef, useState, type FormEvent } from "react";
 import type { StockLot, StockRow } from "@/lib/data/stock";
 import { apiFetch, jsonInit } from "@/lib/queries/api";
@@ -14,14 +14,16 @@ import { globalUnitsOf, DIMENSION_OF_BASE, unitsFor, type UnitSystem } from "@/l
 import { CureCaution } from "@/components/cure/cure-caution";
 import { describedBy, FieldError, FieldHint, FormMessage, TextField } from "@/components/ui/field";
 import { SideSheet, SideSheetFooter } from "@/components/ui/side-sheet";
-import { casingLabel, itemUnitsOf, quantityText } from "./stock-rows";
+import { casingLabel, DATE_KIND_WORDS, daysLeft, formatDay, itemUnitsOf, quantityText } from "./stock-rows";
+
+export type ActionKind = "waste" | "adjustment" | "transfer";
 
 export interface ActionTarget {
   item: StockRow;
   lot?: StockLot;
+  /** the mode the sheet opens in (the row menu's choice); waste when not given */
+  kind?: ActionKind;
 }
-
-type ActionKind = "waste" | "adjustment" | "transfer";
 
 const KIND_WORDS: Record<ActionKind, { label: string; hint: string }> = {
   waste: { label: "Waste", hint: "Stock thrown away: spoiled, dropped, past its date." },
@@ -51,13 +53,15 @@ async function fetchKitchens(): Promise<KitchenOption[]> {
   return body.kitchens.filter((k) => !k.archived);
 }
 
-export function StockActionSheet({ kitchen, target, onClose, onDone, unitSystem }: {
+export function StockActionSheet({ kitchen, target, onClose, onDone, unitSystem, today }: {
   kitchen: string;
   target: ActionTarget | null;
   onClose: () => void;
   /** called after a movement was posted, with a sentence to confirm it */
   onDone: (message: string) => void;
   unitSystem: UnitSystem;
+  /** the user's today, yyyy-mm-dd: an expired lot is said so */
+  today?: string;
 }) {
   const item = target?.item;
   const lot = target?.lot;
@@ -67,25 +71,42 @@ export function StockActionSheet({ kitchen, target, onClose, onDone, unitSystem 
     : undefined;
   return (
     <SideSheet open={target !== null} onClose={onClose} title={title} description={description}>
-      {item ? <ActionForm kitchen={kitchen} item={item} lot={lot} onDone={onDone} unitSystem={unitSystem} onCancel={onClose} /> : null}
+      {item ? (
+        <ActionForm
+          // a new target (or mode) starts a fresh form
+          key={`${item.itemId}:${lot?.lotId ?? ""}:${target?.kind ?? ""}`}
+          kitchen={kitchen}
+          item={item}
+          lot={lot}
+          initialKind={target?.kind ?? "waste"}
+          today={today}
+          onDone={onDone}
+          unitSystem={unitSystem}
+          onCancel={onClose}
+        />
+      ) : null}
     </SideSheet>
   );
 }
 
-function ActionForm({ kitchen, item, lot, onDone, onCancel, unitSystem }: {
+function ActionForm({ kitchen, item, lot, initialKind, today, onDone, onCancel, unitSystem }: {
   kitchen: string;
   item: StockRow;
   lot?: StockLot;
+  initialKind: ActionKind;
+  today?: string;
   onDone: (message: string) => void;
   onCancel: () => void;
   unitSystem: UnitSystem;
 }) {
   const queryClient = useQueryClient();
   const id = useId().replace(/:/g, "");
-  const [kind, setKind] = useState<ActionKind>("waste");
+  const [kind, setKind] = useState<ActionKind>(initialKind);
+  const expiredOn = lot?.date && today && daysLeft(lot.date, today) < 0 ? lot.date : null;
   const [quantity, setQuantity] = useState("");
   const units = useMemo(() => unitOptions(item), [item]);
-  const [unit, setUnit] = useState(units[0]?.unit ?? item.unit);
+  // the put-up or the stock unit first (the list itself runs small to large: mg before g)
+  const [unit, setUnit] = useState(() => units.find((u) => u.unit === item.casing?.putUp)?.unit ?? units.find((u) => u.unit === item.unit)?.unit ?? units[0]?.unit ?? item.unit);
   const [reason, setReason] = useState("");
   const [toKitchen, setToKitchen] = useState("");
   const [fields, setFields] = useState<Record<string, string[]>>({});
@@ -156,6 +177,14 @@ function ActionForm({ kitchen, item, lot, onDone, onCancel, unitSystem }: {
       <p className="text-sm text-brine">
         Available{lot ? ` in lot ${lot.code}` : ""}: <span className="num font-semibold tabular-nums text-pepper">{quantityText(available, item, unitSystem).main}</span>
       </p>
+      {expiredOn && lot ? (
+        <p className="flex items-start gap-2 rounded-md border border-ember/30 bg-ember-soft px-3 py-2 text-sm font-medium text-ember">
+          <AlertTriangle aria-hidden className="mt-0.5 h-4 w-4 shrink-0" />
+          <span>
+            Lot {lot.code} is expired ({lot.dateKind ? DATE_KIND_WORDS[lot.dateKind] : "dated"} {formatDay(expiredOn)}): it may be wasted, but not used in production.
+          </span>
+        </p>
+      ) : null}
 
       <fieldset>
         <legend className="field-label">What happened</legend>

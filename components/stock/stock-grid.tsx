@@ -6,7 +6,13 @@
 // buildRows() (category header rows, items, lots under tracked items); an external filter hides
 // the rows of a collapsed category or item, and postSortRows puts sorted rows back under their
 // header and item. Counts typed into the "Counted" column collect in a pending count sheet that is
-// posted in one go; par level and reorder point save at once (optimistic, put back on error).
+// posted in one go; par level and reorder point save at once (optimistic, put back on error). Both
+// take a plain number in the item's stock unit or a number with a unit of the same dimension
+// ("2.5 lb", "12 ft"): counts are posted in the typed unit (the server converts and keeps what was
+// typed), levels are converted here by lib/units because the levels endpoint takes one unit for
+// both. Each row has one compact actions button (pinned right) opening a small menu: History, and
+// for people who may post, waste / adjustment / transfer out in the record sheet. The layout fits
+// 1024 x 768 with the rail.
 // Undo is ag-grid's undoRedoCellEditing: Ctrl+Z (or the Undo button, for touch) restores the
 // previous value, which goes through the same setter and save path as an edit. ag-grid keeps its
 // undo history by row position, so it clears it whenever rows are shown, hidden, re-sorted or
@@ -31,14 +37,16 @@ import {
   type ProcessCellForExportParams,
   type RowClassParams,
   type RowHeightParams,
+  type SuppressKeyboardEventParams,
   type TextMatcherParams,
   type ValueGetterParams,
   type ValueSetterParams,
 } from "ag-grid-community";
 import { AgGridReact, type CustomCellEditorProps, type CustomCellRendererProps } from "ag-grid-react";
-import { ChevronDown, ChevronRight, ClipboardList, Download, History, Loader2, PencilLine, RotateCcw, Search, Undo2 } from "lucide-react";
+import { ArrowRightLeft, ChevronDown, ChevronRight, CircleAlert, ClipboardList, Download, Ellipsis, History, Loader2, RotateCcw, Search, SlidersHorizontal, Trash2, Undo2 } from "lucide-react";
 import Link from "next/link";
-import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } from "react";
+import { useCallback, useEffect, useId, useLayoutEffect, useMemo, useRef, useState, useSyncExternalStore } from "react";
+import { createPortal } from "react-dom";
 import { CureCaution } from "@/components/cure/cure-caution";
 import { CureMarker } from "@/components/cure/cure-marker";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -47,15 +55,20 @@ import type { ItemCategory } from "@/db/types";
 import { ApiError, newIdempotencyKey, postCount, putStockLevel, stockQueryOptions } from "@/lib/queries/stock";
 import { dec, type UnitSystem } from "@/lib/units";
 import { HistorySheet, type HistoryTarget } from "./history-sheet";
-import { StockActionSheet, type ActionTarget } from "./stock-action-sheet";
+import { RowActionsMenu, menuId, type RowMenuItem, type RowMenuState } from "./row-actions-menu";
+import { StockActionSheet, type ActionKind, type ActionTarget } from "./stock-action-sheet";
 import {
   buildRows,
   casingLabel,
   compareDecimal,
   DATE_KIND_WORDS,
   daysLeft,
+  entryAsStored,
+  entryText,
   expiryBand,
   firstDatedLot,
+  formatDay,
+  parseQuantityEntry,
   parseQuantityInput,
   quantityText,
   restoreHierarchy,
@@ -65,6 +78,7 @@ import {
   type GridRow,
   type ItemRow,
   type LotRow,
+  type QuantityEntry,
 } from "./stock-rows";
 
 // once per page load: without the modules, editors and filters silently do nothing
@@ -90,7 +104,8 @@ const gridTheme = themeQuartz.withParams({
   borderRadius: 6,
   headerHeight: 48,
   rowHeight: 52,
-  cellHorizontalPadding: 12,
+  // narrow padding: at 1024 x 768 with the rail, every key column fits without scrolling sideways
+  cellHorizontalPadding: 8,
   iconSize: 18,
 });
 
@@ -102,9 +117,12 @@ interface PendingLine {
   lotId?: string;
   sku: string;
   lotCode?: string;
+  /** the number as typed */
   counted: string;
-  /** the item's stock unit: what the count is in */
+  /** the unit it was typed in (the item's stock unit when none was typed): the server converts */
   unit: string;
+  /** the grid's text of the entry ("480", "2.5 lb"): what the Counted cell holds */
+  text: string;
 }
 
 /** What cell renderers and setters reach through ag-grid's `context`. */
@@ -117,18 +135,22 @@ interface GridContext {
   isItemExpanded: (rowId: string) => boolean;
   toggleGroup: (g: ItemCategory) => void;
   toggleItem: (rowId: string) => void;
-  openHistory: (row: ItemRow | LotRow) => void;
   canPost: boolean;
-  openRecord: (row: ItemRow | LotRow) => void;
+  /** opens (or, when open, closes) the row's actions menu under the given button */
+  toggleMenu: (row: ItemRow | LotRow, button: HTMLElement, focus?: "first" | "last") => void;
+  /** the row whose menu is open, for the buttons' aria-expanded */
+  menuOpenFor: { subscribe: (listener: () => void) => () => void; get: () => string | null };
   refuse: (message: string) => void;
 }
 
 const GROUP_VALUE = "·group·";
-const dayFormat = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone: "UTC" });
-const formatDay = (d: string) => dayFormat.format(new Date(Date.UTC(Number(d.slice(0, 4)), Number(d.slice(5, 7)) - 1, Number(d.slice(8, 10)))));
 const hasLots = (d: GridRow) => d.kind === "item" && d.item.trackLots && d.item.lots.length > 0;
 const isCountable = (d: GridRow | undefined) => !!d && ((d.kind === "item" && !d.item.trackLots) || d.kind === "lot");
 const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
+const isPress = (e: KeyboardEvent) => (e.key === "Enter" || e.key === " ") && !e.ctrlKey && !e.metaKey && !e.altKey;
+/** Enter or Space that the grid's own handler must not take (it would move down a row). */
+const pressTogglesItem = (p: SuppressKeyboardEventParams<GridRow>) => !p.editing && isPress(p.event) && !!p.data && (p.data.kind === "group" || hasLots(p.data));
+const pressOpensMenu = (p: SuppressKeyboardEventParams<GridRow>) => !p.editing && isPress(p.event) && !!p.data && p.data.kind !== "group";
 
 // ---------------------------------------------------------------------------------------------
 // Cells
@@ -167,19 +189,20 @@ function ItemCell({ data: d, context: ctx }: CustomCellRendererProps<GridRow, un
     const days = lot.date ? daysLeft(lot.date, ctx.today) : null;
     const band = days === null ? null : expiryBand(days);
     return (
-      <div className="flex h-full min-w-0 items-center gap-1 pl-11">
+      <div className="flex h-full min-w-0 items-center gap-1 pl-8">
         <div className="min-w-0 border-l-2 border-brine-line pl-3 leading-tight">
           <div className="truncate font-semibold text-pepper-soft">Lot {lot.code}</div>
-          <div className="mt-0.5 flex items-center gap-1.5 whitespace-nowrap text-[13px] text-brine">
+          <div className="mt-0.5 flex min-w-0 items-center gap-1.5 whitespace-nowrap text-[13px] text-brine">
             {lot.date ? (
               <>
-                <span>
+                {/* the date gives way before its band ("expired") does */}
+                <span className="min-w-0 truncate" title={`${lot.dateKind ? DATE_KIND_WORDS[lot.dateKind] : "dated"} ${formatDay(lot.date)}`}>
                   {lot.dateKind ? DATE_KIND_WORDS[lot.dateKind] : "dated"} {formatDay(lot.date)}
                 </span>
                 {band ? <ExpiryTag tone={band.tone} word={band.word} /> : null}
               </>
             ) : (
-              <span>received {formatDay(lot.receivedOn)} · no date</span>
+              <span className="min-w-0 truncate">received {formatDay(lot.receivedOn)} · no date</span>
             )}
           </div>
         </div>
@@ -238,29 +261,43 @@ function QuantityCell({ value, data: d, context: ctx }: CustomCellRendererProps<
   );
 }
 
+/** The entry a Counted cell holds ("480", "2.5 lb"), read for its item; null when empty or unreadable. */
+function countedEntry(value: string | null | undefined, d: ItemRow | LotRow): QuantityEntry | null {
+  if (value === null || value === undefined) return null;
+  const parsed = parseQuantityEntry(value, d.item);
+  return parsed.ok ? parsed.entry : null;
+}
+
 function CountedCell({ value, data: d, context: ctx }: CustomCellRendererProps<GridRow, string | null, GridContext>) {
   if (!d || d.kind === "group") return null;
   if (d.kind === "item" && d.item.trackLots) {
     return <div className="flex h-full items-center justify-end text-[13px] text-brine">{d.item.lots.length ? "count each lot" : "no lots"}</div>;
   }
   const unit = stockUnitWord(d.item);
-  if (value === null || value === undefined) {
+  const entry = countedEntry(value, d);
+  if (!entry) {
     return (
       <div className="flex h-full items-center justify-end">
-        <span className="inline-flex min-w-[84px] justify-end rounded border border-dashed border-brine-line px-2 py-1 text-sm text-brine">
+        <span className="inline-flex min-w-[72px] justify-end rounded border border-dashed border-brine-line px-2 py-1 text-sm text-brine">
           {ctx.canCount ? unit : "—"}
         </span>
       </div>
     );
   }
   const onHand = d.kind === "lot" ? d.lot.onHand : d.item.onHand;
-  const diff = dec(value).minus(dec(onHand));
+  const diff = dec(entry.inStock).minus(dec(onHand));
+  // typed in the stock unit: exact figures; in another unit: as typed, the difference as people read it
+  const converted = entry.unit !== null;
+  const diffText = diff.isZero()
+    ? "no difference"
+    : `${diff.gt(0) ? "+" : "−"}${converted ? quantityText(diff.abs().toFixed(), d.item, ctx.unitSystem).main : stockUnitText(diff.abs().toFixed(), d.item)}`;
   return (
-    <div className="num flex h-full flex-col items-end justify-center leading-tight tabular-nums">
-      <span className="font-semibold text-pepper">{stockUnitText(value, d.item)}</span>
-      <span className="text-[13px] text-brine">
-        {diff.isZero() ? "no difference" : `${diff.gt(0) ? "+" : "−"}${stockUnitText(diff.abs().toFixed(), d.item)}`}
-      </span>
+    <div
+      className="num flex h-full flex-col items-end justify-center leading-tight tabular-nums"
+      title={converted ? `${entryText(entry)} = ${stockUnitText(entryAsStored(entry), d.item)}` : undefined}
+    >
+      <span className="font-semibold text-pepper">{converted ? entryText(entry) : stockUnitText(entry.quantity, d.item)}</span>
+      <span className="text-[13px] text-brine">{diffText}</span>
     </div>
   );
 }
@@ -280,48 +317,103 @@ function LevelCell({ value, data: d, context: ctx, colDef }: CustomCellRendererP
   );
 }
 
-function HistoryCell({ data: d, context: ctx }: CustomCellRendererProps<GridRow, unknown, GridContext>) {
+const rowTarget = (d: ItemRow | LotRow) => `${d.item.sku}${d.kind === "lot" ? `, lot ${d.lot.code}` : ""}`;
+
+/** One compact button per row: opens the row's menu (History; Record waste, adjustment, transfer). */
+function ActionsCell({ data: d, context: ctx }: CustomCellRendererProps<GridRow, unknown, GridContext>) {
+  const openFor = useSyncExternalStore(ctx.menuOpenFor.subscribe, ctx.menuOpenFor.get, () => null);
   if (!d || d.kind === "group") return null;
-  const label = `History of ${d.item.sku}${d.kind === "lot" ? `, lot ${d.lot.code}` : ""}`;
+  const open = openFor === d.id;
   return (
-    <div className="flex h-full items-center justify-center">
-      <button type="button" tabIndex={-1} aria-label={label} onClick={() => ctx.openHistory(d)} className="btn-quiet min-h-touch gap-1.5 px-3 text-sm">
-        <History aria-hidden className="h-4 w-4" />
-        History
+    // at the cell's left: an overlay scrollbar (tablets) may cover the last 16 px of the grid
+    <div className="flex h-full items-center justify-start">
+      <button
+        type="button"
+        // the grid moves focus between cells; Enter, Space or Shift+F10 on the row opens the menu
+        tabIndex={-1}
+        data-row-menu-trigger
+        aria-haspopup="menu"
+        aria-expanded={open}
+        aria-controls={open ? menuId(d.id) : undefined}
+        aria-label={`Actions for ${rowTarget(d)}`}
+        aria-keyshortcuts="Shift+F10"
+        title={ctx.canPost ? "History, waste, adjustment, transfer" : "History"}
+        onClick={(e) => ctx.toggleMenu(d, e.currentTarget)}
+        className={`flex h-11 w-11 items-center justify-center rounded-md border text-pepper hover:bg-salt-deep ${open ? "border-paprika bg-paprika-soft" : "border-salt-edge bg-white"}`}
+      >
+        <Ellipsis aria-hidden className="h-5 w-5" />
       </button>
-      {ctx.canPost ? (
-        <button type="button" tabIndex={-1} aria-label={`Record for ${d.item.sku}${d.kind === "lot" ? `, lot ${d.lot.code}` : ""}`} onClick={() => ctx.openRecord(d)} className="btn-quiet min-h-touch gap-1.5 px-3 text-sm">
-          <PencilLine aria-hidden className="h-4 w-4" />
-          Record
-        </button>
-      ) : null}
     </div>
   );
 }
 
-/** The editor of the quantity cells: a decimal keypad on tablets, the stock unit beside the box. */
+function ActionsHeader() {
+  return (
+    <span className="flex w-11 justify-center" title="Row actions">
+      <Ellipsis aria-hidden className="h-5 w-5 text-brine" />
+      <span className="sr-only">Actions</span>
+    </span>
+  );
+}
+
+/**
+ * The editor of the quantity cells: a decimal keypad on tablets, the stock unit beside the box. A
+ * number alone is in the stock unit; a number and a unit of the same dimension ("2.5 lb", "12 ft")
+ * is converted exactly (lib/units), and the conversion shows under the box. Enter or Tab on text
+ * that cannot be read keeps the editor open with the reason under the box (Esc cancels); leaving
+ * the cell otherwise is refused by the column's setter, which says why above the grid.
+ */
 function QuantityEditor(p: CustomCellEditorProps<GridRow, string | null, GridContext>) {
   const ref = useRef<HTMLInputElement>(null);
   const d = p.data;
   const { eventKey, onValueChange } = p;
   const typed = !!eventKey && eventKey.length === 1;
+  const bubbleId = `${useId().replace(/:/g, "")}-quantity-note`;
   // The text is held here, not only in the grid: keys typed right after the one that opened the
   // editor must land after it, before the grid has re-rendered with the new value.
   const [text, setText] = useState(() =>
     typed ? eventKey! : eventKey === "Backspace" || eventKey === "Delete" ? "" : (p.initialValue ?? ""),
   );
+  // errors show once Enter or Tab was refused (while typing "2 l" on the way to "2 lb" they would flash)
+  const [tried, setTried] = useState(false);
+  const [box, setBox] = useState<DOMRect | null>(null);
+  const item = d && d.kind !== "group" ? d.item : null;
+  const parsed = item ? parseQuantityEntry(text, item) : null;
+  const parsedRef = useRef(parsed);
+  parsedRef.current = parsed;
+
   useLayoutEffect(() => {
     const input = ref.current;
     if (text !== (p.initialValue ?? "")) onValueChange(text);
     input?.focus();
     if (typed) input?.setSelectionRange(text.length, text.length);
     else input?.select();
+    if (input) setBox(input.getBoundingClientRect());
     // only when the editor opens
   }, []);
-  if (!d || d.kind === "group") return null;
-  const unit = stockUnitWord(d.item);
+
+  useEffect(() => {
+    const input = ref.current;
+    if (!input) return;
+    // on the input itself, before the grid's own key handling on the cell: the grid would commit
+    const onKeyDown = (e: KeyboardEvent) => {
+      if ((e.key === "Enter" || e.key === "Tab") && parsedRef.current && !parsedRef.current.ok) {
+        e.preventDefault();
+        e.stopPropagation();
+        setTried(true);
+      }
+    };
+    input.addEventListener("keydown", onKeyDown);
+    return () => input.removeEventListener("keydown", onKeyDown);
+  }, []);
+
+  if (!d || d.kind === "group" || !item || !parsed) return null;
+  const unit = stockUnitWord(item);
   const what = p.colDef.headerName ?? "Quantity";
-  const target = d.kind === "lot" ? `${d.item.sku}, lot ${d.lot.code}` : d.item.sku;
+  const target = d.kind === "lot" ? `${item.sku}, lot ${d.lot.code}` : item.sku;
+  const error = tried && !parsed.ok ? parsed.message : null;
+  const preview = parsed.ok && parsed.entry?.unit ? `${entryText(parsed.entry)} = ${stockUnitText(entryAsStored(parsed.entry), item)}` : null;
+  const note = error ?? preview;
   return (
     <div className="flex h-full w-full items-center gap-1.5 bg-white px-2">
       <input
@@ -331,14 +423,31 @@ function QuantityEditor(p: CustomCellEditorProps<GridRow, string | null, GridCon
         autoComplete="off"
         spellCheck={false}
         aria-label={`${what} for ${target}, in ${unit}`}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={note ? bubbleId : undefined}
         value={text}
         onChange={(e) => {
           setText(e.target.value);
           onValueChange(e.target.value);
         }}
-        className="num h-10 w-full min-w-0 rounded border-2 border-paprika bg-white px-2 text-right tabular-nums text-pepper outline-none"
+        className={`num h-10 w-full min-w-0 rounded border-2 bg-white px-2 text-right tabular-nums text-pepper outline-none ${error ? "border-ember" : "border-paprika"}`}
       />
       <span className="shrink-0 text-sm text-brine">{unit}</span>
+      {note && box && typeof document !== "undefined"
+        ? createPortal(
+            // under the box, outside the cell (cells clip their content)
+            <div
+              id={bubbleId}
+              role={error ? "alert" : undefined}
+              style={{ position: "fixed", top: box.bottom + 6, left: Math.max(8, Math.min(box.right - 320, window.innerWidth - 328)), width: 320, zIndex: 60 }}
+              className={`flex items-start gap-2 rounded-md border px-3 py-2 text-sm font-medium shadow-lg ${error ? "border-ember/40 bg-ember-soft text-ember" : "border-salt-edge bg-white text-pepper"}`}
+            >
+              {error ? <CircleAlert aria-hidden className="mt-0.5 h-4 w-4 shrink-0" /> : null}
+              <span>{error ? `${what} not changed: ${error} Esc cancels.` : preview}</span>
+            </div>,
+            document.body,
+          )
+        : null}
     </div>
   );
 }
@@ -357,6 +466,13 @@ const itemLevelFilterValue = (value: (d: ItemRow | LotRow) => string | null) => 
   const d = p.data;
   if (!d || d.kind === "group") return GROUP_VALUE;
   return value(d);
+};
+
+/** A Counted cell's value in the stock unit (the cell holds the entry as typed: "2.5 lb"). */
+const countedInStock = (d: GridRow | undefined): string | null => {
+  if (!isCountable(d)) return null;
+  const row = d as ItemRow | LotRow;
+  return countedEntry(row.counted, row)?.inStock ?? null;
 };
 
 const decimalComparator = (a: string | null, b: string | null) => {
@@ -408,7 +524,13 @@ const CSV_COLUMNS = ["category", "sku", "name", "lot", "date", "dateKind", "unit
 
 /** Cells a spreadsheet would run as a formula get a leading ' (as in the movements CSV). */
 function csvCell(p: ProcessCellForExportParams<GridRow>): string {
-  const v = p.value;
+  let v = p.value;
+  // a count typed in another unit ("2.5 lb") goes out in the stock unit, as it will be stored
+  const d = p.node?.data;
+  if (p.column.getColId() === "counted" && d && d.kind !== "group" && typeof v === "string") {
+    const entry = countedEntry(v, d);
+    v = entry ? entryAsStored(entry) : v;
+  }
   if (v === null || v === undefined) return "";
   const s = String(v);
   return /^[=+\-@\t\r]/.test(s) && !/^-?\d/.test(s) ? `'${s}` : s;
@@ -444,6 +566,7 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
   const queryClient = useQueryClient();
   const query = useQuery({ ...stockQueryOptions(kitchen.code), staleTime: 0 });
   const apiRef = useRef<GridApi<GridRow> | null>(null);
+  const gridBox = useRef<HTMLDivElement>(null);
   const collapsed = useRef(new Set<ItemCategory>());
   const expanded = useRef(new Set<string>());
   const exportingAll = useRef(false);
@@ -464,10 +587,11 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
   // first posting instead of counting twice; any change to the sheet gets a new key
   const countKey = useRef<string | null>(null);
 
-  const storageKey = `hank-and-lot:stock-grid:columns:v1:${userId}`;
+  // v2: the narrow layout with one actions column (v1 layouts kept the wide "history" column)
+  const storageKey = `hank-and-lot:stock-grid:columns:v2:${userId}`;
   const data = query.data;
   const rows = useMemo(
-    () => (data ? buildRows(data.rows, { get: (id) => pendingRef.current.get(id)?.counted }) : []),
+    () => (data ? buildRows(data.rows, { get: (id) => pendingRef.current.get(id)?.text }) : []),
     // rowsVersion: rebuild on demand (pending counts are read through the ref)
     [data, rowsVersion],
   );
@@ -482,6 +606,64 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
     if (collapsed.current.has(d.group)) return false;
     return d.kind === "item" || expanded.current.has(d.parentId);
   }, []);
+
+  // ---- the row menu: one for the grid; the buttons learn which row has it through a tiny store
+  const [menu, setMenuState] = useState<RowMenuState | null>(null);
+  const menuRef = useRef<RowMenuState | null>(null);
+  const menuListeners = useRef(new Set<() => void>());
+  const setMenu = useCallback((next: RowMenuState | null) => {
+    menuRef.current = next;
+    setMenuState(next);
+    for (const l of menuListeners.current) l();
+  }, []);
+  const menuOpenStore = useMemo(
+    () => ({
+      subscribe: (listener: () => void) => {
+        menuListeners.current.add(listener);
+        return () => void menuListeners.current.delete(listener);
+      },
+      get: () => menuRef.current?.rowId ?? null,
+    }),
+    [],
+  );
+
+  /** Focus back on the row's actions cell (where the menu came from), so the keyboard carries on. */
+  const focusActionsCell = useCallback((rowId: string) => {
+    const api = apiRef.current;
+    const node = api?.getRowNode(rowId);
+    if (api && node && node.rowIndex !== null) api.setFocusedCell(node.rowIndex, "actions");
+  }, []);
+
+  const menuItems = useCallback(
+    (row: ItemRow | LotRow): RowMenuItem[] => {
+      const target = { item: row.item, lot: row.kind === "lot" ? row.lot : undefined };
+      // the sheets give focus back to what had it when they opened: the row's cell
+      const open = (then: () => void) => () => {
+        focusActionsCell(row.id);
+        then();
+      };
+      const record = (kind: ActionKind) => open(() => setRecord({ ...target, kind }));
+      const items: RowMenuItem[] = [{ key: "history", label: "History", icon: History, onSelect: open(() => setHistory(target)) }];
+      if (canPost) {
+        items.push(
+          { key: "waste", label: "Record waste", icon: Trash2, onSelect: record("waste") },
+          { key: "adjustment", label: "Record adjustment", icon: SlidersHorizontal, onSelect: record("adjustment") },
+          { key: "transfer", label: "Transfer out", icon: ArrowRightLeft, onSelect: record("transfer") },
+        );
+      }
+      return items;
+    },
+    [canPost, focusActionsCell],
+  );
+
+  const closeMenu = useCallback(
+    (reason: "escape" | "tab" | "outside" | "chosen") => {
+      const open = menuRef.current;
+      setMenu(null);
+      if (open && (reason === "escape" || reason === "tab")) focusActionsCell(open.rowId);
+    },
+    [setMenu, focusActionsCell],
+  );
 
   const refreshItemCells = useCallback((rowIds: string[]) => {
     const api = apiRef.current;
@@ -508,38 +690,55 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
         apiRef.current?.onFilterChanged();
         refreshItemCells([id]);
       },
-      openHistory: (row) => setHistory({ item: row.item, lot: row.kind === "lot" ? row.lot : undefined }),
       canPost,
-      openRecord: (row) => setRecord({ item: row.item, lot: row.kind === "lot" ? row.lot : undefined }),
+      toggleMenu: (row, button, focus = "first") => {
+        if (menuRef.current?.rowId === row.id) {
+          setMenu(null);
+          return;
+        }
+        const r = button.getBoundingClientRect();
+        setMenu({
+          rowId: row.id,
+          label: `Actions for ${rowTarget(row)}`,
+          anchor: { top: r.top, bottom: r.bottom, left: r.left, right: r.right },
+          focus,
+          items: menuItems(row),
+        });
+      },
+      menuOpenFor: menuOpenStore,
       refuse: (message) => setNotice({ tone: "error", text: message }),
     }),
-    [unitSystem, today, canCount, canSetLevels, canPost, refreshItemCells],
+    [unitSystem, today, canCount, canSetLevels, canPost, refreshItemCells, menuItems, menuOpenStore],
   );
 
   const quantitySetter = useCallback((field: "counted" | "parLevel" | "reorderPoint", what: string) => (p: ValueSetterParams<GridRow>) => {
     const d = p.data;
     if (!d || d.kind === "group") return false;
-    const parsed = parseQuantityInput(p.newValue);
-    const target = d.kind === "lot" ? `${d.item.sku}, lot ${d.lot.code}` : d.item.sku;
+    const parsed = parseQuantityEntry(p.newValue, d.item);
     if (!parsed.ok) {
-      (p.context as GridContext).refuse(`${what} for ${target} not changed: ${parsed.message}`);
+      (p.context as GridContext).refuse(`${what} for ${rowTarget(d)} not changed: ${parsed.message}`);
       return false;
     }
     if (field === "counted") {
-      if (!isCountable(d) || d.counted === parsed.value) return false;
-      d.counted = parsed.value;
+      // kept as typed ("2.5 lb"): the count is posted in that unit and the server converts it
+      const value = parsed.entry ? entryText(parsed.entry) : null;
+      if (!isCountable(d) || d.counted === value) return false;
+      d.counted = value;
       return true;
     }
-    if (d.kind !== "item" || d[field] === parsed.value) return false;
-    d[field] = parsed.value;
+    // levels are saved together in one unit: converted here (lib/units), rounded as stored
+    const value = parsed.entry ? entryAsStored(parsed.entry) : null;
+    if (d.kind !== "item" || d[field] === value) return false;
+    d[field] = value;
     return true;
   }, []);
 
   const columnDefs = useMemo<ColDef<GridRow>[]>(() => {
+    // widths for 1024 x 768 with the rail: about 865 px for the grid, the item column takes the rest
     const numeric = {
       type: "rightAligned",
-      width: 128,
-      minWidth: 100,
+      width: 100,
+      minWidth: 80,
       comparator: decimalComparator,
       filter: "agTextColumnFilter",
       filterParams: decimalFilterParams,
@@ -555,11 +754,12 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
         headerName: "Item",
         pinned: "left",
         lockPinned: true,
-        width: 300,
-        minWidth: 220,
+        flex: 1,
+        minWidth: 190,
         valueGetter: (p) => (!p.data ? null : p.data.kind === "group" ? p.data.label : p.data.kind === "item" ? p.data.label : `${p.data.item.sku} lot ${p.data.lot.code}`),
         comparator: (a: string | null, b: string | null) => (a ?? "").localeCompare(b ?? "", undefined, { numeric: true }),
         cellRenderer: ItemCell,
+        suppressKeyboardEvent: pressTogglesItem,
         getQuickFilterText: (p) => p.data?.search ?? "",
         filter: "agTextColumnFilter",
         filterValueGetter: (p) => {
@@ -571,32 +771,34 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
         },
         filterParams: { filterOptions: ["contains", "notContains", "startsWith", "equals"], textMatcher: itemTextMatcher, maxNumConditions: 1, trimInput: true } satisfies ITextFilterParams,
       },
-      { ...numeric, colId: "onHand", headerName: "On hand", width: 140, valueGetter: quantityOf("onHand"), cellRenderer: QuantityCell, filterValueGetter: itemLevelFilterValue((d) => d.item.onHand) },
-      { ...numeric, colId: "reserved", headerName: "Reserved", width: 116, valueGetter: quantityOf("reserved"), cellRenderer: QuantityCell, filterValueGetter: itemLevelFilterValue((d) => d.item.reserved) },
-      { ...numeric, colId: "available", headerName: "Available", width: 128, valueGetter: quantityOf("available"), cellRenderer: QuantityCell, filterValueGetter: itemLevelFilterValue((d) => d.item.available) },
+      { ...numeric, colId: "onHand", headerName: "On hand", width: 100, valueGetter: quantityOf("onHand"), cellRenderer: QuantityCell, filterValueGetter: itemLevelFilterValue((d) => d.item.onHand) },
+      { ...numeric, colId: "reserved", headerName: "Reserved", width: 92, valueGetter: quantityOf("reserved"), cellRenderer: QuantityCell, filterValueGetter: itemLevelFilterValue((d) => d.item.reserved) },
+      { ...numeric, colId: "available", headerName: "Available", width: 100, valueGetter: quantityOf("available"), cellRenderer: QuantityCell, filterValueGetter: itemLevelFilterValue((d) => d.item.available) },
     ];
     if (canCount) {
       defs.push({
         ...numeric,
         colId: "counted",
         headerName: "Counted",
-        headerTooltip: "Type the quantity counted, in the item's stock unit. Enter saves it to the count sheet and moves down.",
-        width: 136,
+        headerTooltip: "Type the quantity counted: a number in the item's stock unit, or with a unit (2.5 lb, 12 ft). Enter saves it to the count sheet and moves down.",
+        width: 104,
         editable: (p) => isCountable(p.data),
         valueGetter: (p) => (isCountable(p.data) ? (p.data as ItemRow | LotRow).counted : null),
+        // the cell holds the entry as typed ("2.5 lb"): sorted in the stock unit
+        comparator: (_a: string | null, _b: string | null, a: IRowNode<GridRow>, b: IRowNode<GridRow>) => decimalComparator(countedInStock(a.data), countedInStock(b.data)),
         valueSetter: quantitySetter("counted", "Counted"),
         cellEditor: QuantityEditor,
         cellRenderer: CountedCell,
         cellClass: (p) => (isCountable(p.data) ? "cursor-text" : undefined),
         // a tracked item is counted by lot: it stands above its lots like a header
-        filterValueGetter: itemLevelFilterValue((d) => (d.kind === "item" && d.item.trackLots ? GROUP_VALUE : d.counted)),
+        filterValueGetter: itemLevelFilterValue((d) => (d.kind === "item" && d.item.trackLots ? GROUP_VALUE : countedInStock(d))),
       });
     }
     const levelCol = (colId: "parLevel" | "reorderPoint", headerName: string, width: number): ColDef<GridRow> => ({
       ...numeric,
       colId,
       headerName,
-      headerTooltip: canSetLevels ? "In the item's stock unit (g, ml, m or put-ups). Saved as soon as you press Enter." : undefined,
+      headerTooltip: canSetLevels ? "A number in the item's stock unit (g, ml, m or put-ups), or with a unit (2 kg, 12 ft). Saved as soon as you press Enter." : undefined,
       width,
       editable: (p) => canSetLevels && p.data?.kind === "item",
       valueGetter: (p) => (p.data?.kind === "item" ? p.data[colId] : null),
@@ -606,17 +808,24 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
       cellClass: (p) => (canSetLevels && p.data?.kind === "item" ? "cursor-text" : undefined),
       filterValueGetter: itemLevelFilterValue((d) => (d.kind === "item" ? d[colId] : d.item[colId])),
     });
-    defs.push(levelCol("parLevel", "Par level", 124), levelCol("reorderPoint", "Reorder point", 172));
+    defs.push(levelCol("parLevel", "Par level", 92), levelCol("reorderPoint", "Reorder point", 120));
     defs.push({
-      colId: "history",
-      headerName: canPost ? "History and record" : "History",
+      colId: "actions",
+      headerName: "Actions",
+      headerComponent: ActionsHeader,
+      headerTooltip: canPost ? "Row actions: history, waste, adjustment, transfer out (Shift+F10 on a row)" : "Row actions: history (Shift+F10 on a row)",
       pinned: "right",
       lockPinned: true,
-      width: canPost ? 232 : 124,
+      // 44 px button + 4 px padding, and 16 px a tablet's overlay scrollbar may cover
+      width: 68,
       resizable: false,
       sortable: false,
       filter: false,
-      cellRenderer: HistoryCell,
+      suppressMovable: true,
+      cellClass: "!pl-1 !pr-0",
+      headerClass: "!pl-1 !pr-0",
+      cellRenderer: ActionsCell,
+      suppressKeyboardEvent: pressOpensMenu,
       getQuickFilterText: () => "",
     });
     // for the CSV file only: plain values in the stock unit, one column each
@@ -632,7 +841,8 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
     return defs;
   }, [canCount, canSetLevels, canPost, quantitySetter]);
 
-  const defaultColDef = useMemo<ColDef<GridRow>>(() => ({ sortable: true, resizable: true, suppressMovable: false }), []);
+  // headers wrap ("Reorder / point") rather than widen their columns
+  const defaultColDef = useMemo<ColDef<GridRow>>(() => ({ sortable: true, resizable: true, suppressMovable: false, wrapHeaderText: true, autoHeaderHeight: true }), []);
 
   // ---- column state, remembered per user in this browser
   const saveColumns = useCallback(
@@ -709,6 +919,7 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
         setPending((prev) => {
           const next = new Map(prev);
           const counted = (d as ItemRow | LotRow).counted;
+          const entry = countedEntry(counted, d as ItemRow | LotRow);
           if (counted === null) next.delete(d.id);
           else {
             next.set(d.id, {
@@ -717,8 +928,9 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
               lotId: d.kind === "lot" ? d.lot.lotId : undefined,
               sku: d.item.sku,
               lotCode: d.kind === "lot" ? d.lot.code : undefined,
-              counted,
-              unit: d.item.unit,
+              counted: entry?.quantity ?? counted,
+              unit: entry?.unit ?? d.item.unit,
+              text: counted,
             });
           }
           return next;
@@ -738,16 +950,28 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
     (e: CellKeyDownEvent<GridRow> | FullWidthCellKeyDownEvent<GridRow>) => {
       const ke = e.event as KeyboardEvent | undefined;
       const d = e.data;
-      if (!ke || !d || !("column" in e) || (ke.key !== "Enter" && ke.key !== " ")) return;
+      if (!ke || !d || !("column" in e)) return;
       const colId = e.column.getColId();
+      const menuKey = (ke.key === "F10" && ke.shiftKey) || ke.key === "ContextMenu";
+      if (menuKey && d.kind !== "group" && !e.api.getEditingCells().length) {
+        // the row's menu from any of its cells, as a context menu would open
+        const button = gridBox.current?.querySelector<HTMLElement>(`.ag-row[row-id="${CSS.escape(d.id)}"] [col-id="actions"] button`);
+        if (!button) return;
+        ke.preventDefault();
+        context.toggleMenu(d, button);
+        return;
+      }
+      if (ke.key !== "Enter" && ke.key !== " ") return;
       if (colId === "item") {
         if (d.kind === "group") context.toggleGroup(d.group);
         else if (hasLots(d)) context.toggleItem(d.id);
         else return;
         ke.preventDefault();
-      } else if (colId === "history" && d.kind !== "group") {
+      } else if (colId === "actions" && d.kind !== "group") {
+        const button = (ke.target as HTMLElement | null)?.querySelector?.<HTMLElement>("button[data-row-menu-trigger]");
+        if (!button) return;
         ke.preventDefault();
-        context.openHistory(d);
+        context.toggleMenu(d, button);
       }
     },
     [context],
@@ -919,7 +1143,7 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
             </p>
           ) : (
             <p className="min-w-0 flex-1 basis-[360px] text-sm text-brine">
-              To count, tap a Counted cell or type a number on it: Enter keeps it and moves down, Esc cancels, Ctrl+Z undoes.
+              To count, tap a Counted cell or type on it (480, or with a unit: 2.5 lb): Enter keeps it and moves down, Esc cancels, Ctrl+Z undoes.
             </p>
           )}
           <div className="flex shrink-0 gap-2">
@@ -933,7 +1157,7 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
           </div>
         </section>
       ) : canSetLevels ? (
-        <p className="text-sm text-brine">Tap a par level or reorder point to change it (in the item&apos;s stock unit); it is saved at once, and Ctrl+Z undoes.</p>
+        <p className="text-sm text-brine">Tap a par level or reorder point to change it (in the item&apos;s stock unit, or with a unit: 2 kg, 12 ft); it is saved at once, and Ctrl+Z undoes.</p>
       ) : null}
 
       <div role="status" className={notice?.tone === "success" ? "" : "sr-only"}>
@@ -941,7 +1165,7 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
       </div>
       {notice?.tone === "error" ? <FormMessage tone="error">{notice.text}</FormMessage> : null}
 
-      <div style={{ height: "max(360px, calc(100vh - 380px))" }}>
+      <div ref={gridBox} style={{ height: "max(360px, calc(100vh - 380px))" }}>
         <AgGridReact<GridRow>
           theme={gridTheme}
           rowData={rows}
@@ -982,6 +1206,7 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
         />
       </div>
 
+      <RowActionsMenu menu={menu} onClose={closeMenu} />
       <HistorySheet
         kitchen={kitchen.code}
         target={history}
@@ -1000,6 +1225,7 @@ export function StockGrid({ kitchen, userId, unitSystem, timeZone, today, canCou
             setNotice({ tone: "success", text });
           }}
           unitSystem={unitSystem}
+          today={today}
         />
       ) : null}
     </div>

@@ -7,7 +7,21 @@
 // collapsed group or item with an external filter and keeps the hierarchy through sorting.
 import type { DateKind, ItemCategory } from "@/db/types";
 import type { StockLot, StockRow } from "@/lib/data/stock";
-import { dec, formatMetresOf, formatQuantity, type ItemUnits, type UnitSystem } from "@/lib/units";
+import {
+  dec,
+  DIMENSION_OF_BASE,
+  findGlobalUnit,
+  formatMetresOf,
+  formatQuantity,
+  plain,
+  stockUnitsPer,
+  toStockUnits,
+  toStoredQuantity,
+  unitsFor,
+  UnitError,
+  type ItemUnits,
+  type UnitSystem,
+} from "@/lib/units";
 
 export const GROUPS: readonly { category: ItemCategory; label: string }[] = [
   { category: "casing", label: "Casings" },
@@ -147,26 +161,124 @@ const PLAIN = /^\d{1,18}(\.\d{1,12})?$/;
 
 export type ParsedQuantity = { ok: true; value: string | null } | { ok: false; message: string };
 
+/** The number part of a typed quantity: "12,5" -> "12.5", ".5" -> "0.5"; null when it is not one. */
+function plainNumber(raw: string): string | null {
+  let s = raw;
+  if (/^\d+,\d+$/.test(s)) s = s.replace(",", ".");
+  if (/^[.,]\d+$/.test(s)) s = `0.${s.slice(1)}`;
+  return PLAIN.test(s) ? dec(s).toFixed() : null;
+}
+
+const NOT_A_NUMBER = "Enter a plain number, 0 or more, e.g. 12.5 (at most 12 decimals).";
+const NEGATIVE = "A quantity cannot be negative: enter 0 or more.";
+
 /**
  * A quantity typed into the grid: a plain decimal, zero or more ("12.5"; a decimal comma "12,5" is
  * read as a point); empty clears. Returns the canonical string ("012.50" -> "12.5") the API takes.
+ * No unit: the filters compare in the stock unit (a unit is read by parseQuantityEntry).
  */
 export function parseQuantityInput(raw: unknown): ParsedQuantity {
   if (raw === null || raw === undefined) return { ok: true, value: null };
-  let s = String(raw).trim();
+  const s = String(raw).trim();
   if (s === "") return { ok: true, value: null };
-  if (/^\d+,\d+$/.test(s)) s = s.replace(",", ".");
-  if (/^\.\d+$/.test(s)) s = `0${s}`;
-  if (!PLAIN.test(s)) {
+  const value = plainNumber(s);
+  if (value === null) return { ok: false, message: s.startsWith("-") ? NEGATIVE : NOT_A_NUMBER };
+  return { ok: true, value };
+}
+
+/** A quantity typed for one item, with the unit it was typed in. */
+export interface QuantityEntry {
+  /** the number as typed, canonical ("2.5") */
+  quantity: string;
+  /** the unit as typed, for the API ("lb", "fl oz", "ft"); null: the item's stock unit */
+  unit: string | null;
+  /** exactly, in the item's stock unit: lib/units, unrounded (60 significant digits at most) */
+  inStock: string;
+}
+
+export type ParsedEntry =
+  | { ok: true; entry: QuantityEntry | null }
+  | { ok: false; message: string; field: "quantity" | "unit" };
+
+type EntryItem = Pick<StockRow, "unit" | "casing">;
+
+// a number, then (with or without a blank) a unit made of letters, blanks, dots and underscores
+const ENTRY = /^(\d*[.,]?\d+|\d+[.,]?)\s*([A-Za-z][A-Za-z ._]*)?$/;
+
+const DIMENSION_WORDS: Record<string, string> = { mass: "weight", length: "length", volume: "volume", count: "count" };
+
+/** The units this item can be typed in, for messages: "g, mg, kg, oz or lb", "hanks, m, ft, yd…". */
+export function acceptedUnitsText(row: EntryItem): string {
+  let labels: string[];
+  try {
+    labels = unitsFor(itemUnitsOf(row)).map((c) => (c.kind === "put-up" ? stockUnitWord(row, "2") : c.label));
+  } catch {
+    labels = [stockUnitWord(row, "2")];
+  }
+  const stock = stockUnitWord(row, "2");
+  const ordered = [stock, ...labels.filter((l) => l !== stock)];
+  return ordered.length === 1 ? ordered[0]! : `${ordered.slice(0, -1).join(", ")} or ${ordered.at(-1)}`;
+}
+
+/** What the item is counted in, in words: "g (weight)", "hanks". */
+function countedInText(row: EntryItem): string {
+  const units = itemUnitsOf(row);
+  return units.putUp ? `${stockUnitWord(row, "2")} (or their length)` : `${row.unit} (${DIMENSION_WORDS[DIMENSION_OF_BASE[row.unit]]})`;
+}
+
+/** An example of a typed quantity with a unit, for this item. */
+export function entryExample(row: EntryItem): string {
+  if (itemUnitsOf(row).putUp) return `1.5 ${stockUnitWord(row, "1.5")} or 12 ft`;
+  return { g: "2.5 lb", m: "12 ft", ml: "250 ml", pc: "6 pc" }[row.unit];
+}
+
+/**
+ * A quantity typed into the grid for one item: a plain number in its stock unit ("480"), or a
+ * number and a unit of the same dimension ("2.5 lb", "300 g", "12 ft", "1.5 hanks"), converted
+ * exactly to the stock unit by lib/units (mass <-> volume never: the grid knows no densities).
+ * Empty clears. Negative numbers, words, exponents and other dimensions are refused with a message
+ * that names the units the item takes.
+ */
+export function parseQuantityEntry(raw: unknown, row: EntryItem): ParsedEntry {
+  if (raw === null || raw === undefined) return { ok: true, entry: null };
+  const s = String(raw).trim();
+  if (s === "") return { ok: true, entry: null };
+  const m = ENTRY.exec(s);
+  const quantity = m ? plainNumber(m[1]!.replace(/[.,]$/, "")) : null;
+  if (!m || quantity === null) {
+    if (s.startsWith("-")) return { ok: false, field: "quantity", message: NEGATIVE };
     return {
       ok: false,
-      message: s.startsWith("-")
-        ? "A quantity cannot be negative: enter 0 or more."
-        : "Enter a plain number, 0 or more, e.g. 12.5 (at most 12 decimals).",
+      field: "quantity",
+      message: `Enter a plain number, 0 or more, in ${stockUnitWord(row, "2")} (e.g. 12.5), or a number and a unit (e.g. ${entryExample(row)}); at most 12 decimals.`,
     };
   }
-  return { ok: true, value: dec(s).toFixed() };
+  const typedUnit = m[2]?.trim().replace(/\.$/, "") ?? "";
+  if (!typedUnit) return { ok: true, entry: { quantity, unit: null, inStock: quantity } };
+  const units = itemUnitsOf(row);
+  try {
+    const inStock = toStockUnits(quantity, typedUnit, units);
+    // typed in the stock unit under any of its names ("g", "grams", "hanks", "pc"): kept as a plain number
+    const isStockUnit = stockUnitsPer(typedUnit, units).eq(1);
+    return { ok: true, entry: { quantity, unit: isStockUnit ? null : typedUnit, inStock: isStockUnit ? quantity : inStock.toFixed() } };
+  } catch (e) {
+    if (!(e instanceof UnitError)) throw e;
+    const g = findGlobalUnit(typedUnit);
+    const message = e.code === "WRONG_DIMENSION" && g
+      ? `"${typedUnit}" is a ${DIMENSION_WORDS[g.dimension]} unit, and this item is counted in ${countedInText(row)}: use ${acceptedUnitsText(row)}.`
+      : `"${typedUnit}" is not a unit for this item: use ${acceptedUnitsText(row)}.`;
+    return { ok: false, field: "unit", message };
+  }
 }
+
+/** The text a typed entry is kept and edited as: "480" (stock unit) or "2.5 lb". */
+export const entryText = (e: QuantityEntry): string => (e.unit === null ? e.quantity : `${e.quantity} ${e.unit}`);
+
+/**
+ * An entry in the stock unit as the database keeps it: rounded half-even to NUMERIC(30,12) by
+ * lib/units (toStoredQuantity), exactly what the server stores for the same typed value.
+ */
+export const entryAsStored = (e: QuantityEntry): string => plain(toStoredQuantity(e.inStock));
 
 // ---------------------------------------------------------------------------------------------
 // Dates and status
@@ -192,6 +304,10 @@ export function expiryBand(days: number): { tone: Tone; word: string } {
 
 export const DATE_KIND_WORDS: Record<DateKind, string> = { use_by: "use by", best_before: "best before" };
 
+const dayFormat = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone: "UTC" });
+/** A calendar date (yyyy-mm-dd) for people: "20 Jun 2027". */
+export const formatDay = (d: string) => dayFormat.format(new Date(Date.UTC(Number(d.slice(0, 4)), Number(d.slice(5, 7)) - 1, Number(d.slice(8, 10)))));
+
 /** The earliest dated lot of an item (the one FEFO takes first). */
 export function firstDatedLot(item: StockRow): StockLot | null {
   let first: StockLot | null = null;
@@ -201,12 +317,13 @@ export function firstDatedLot(item: StockRow): StockLot | null {
 
 /**
  * Stock against the reorder point, on what is available (on hand less reserved): "out" when
- * nothing is available, "below reorder point" at or under it, else nothing to flag.
+ * nothing is available, "to reorder" at or under it (short: it sits under the reorder point in a
+ * narrow column), else nothing to flag.
  */
 export function stockStatus(available: string, reorderPoint: string | null): { tone: Tone; word: string } | null {
   const a = dec(available);
   if (a.lte(0)) return { tone: "ember", word: "out" };
-  if (reorderPoint !== null && a.lte(dec(reorderPoint))) return { tone: "amber", word: "below reorder point" };
+  if (reorderPoint !== null && a.lte(dec(reorderPoint))) return { tone: "amber", word: "to reorder" };
   return null;
 }
 

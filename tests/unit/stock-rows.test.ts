@@ -2,10 +2,14 @@
 // parsing of typed quantities. Pure: no grid, no database.
 import { describe, expect, it } from "vitest";
 import {
+  acceptedUnitsText,
   buildRows,
   casingLabel,
   daysLeft,
+  entryAsStored,
+  entryText,
   expiryBand,
+  parseQuantityEntry,
   parseQuantityInput,
   quantityText,
   restoreHierarchy,
@@ -121,6 +125,93 @@ describe("parseQuantityInput", () => {
   });
 });
 
+describe("parseQuantityEntry: a count or level typed with a unit", () => {
+  const pepper = row({ itemId: "p", sku: "PEP", name: "Pepper", category: "spice" });
+  const twine = row({ itemId: "t", sku: "TW", name: "Twine", category: "ingredient", unit: "m" });
+  const brine = row({ itemId: "b", sku: "BR", name: "Brine", category: "ingredient", unit: "ml" });
+  const hank = hog("h", "32", "35");
+  const ok = (raw: string, item: typeof pepper) => {
+    const r = parseQuantityEntry(raw, item);
+    if (!r.ok) throw new Error(`${raw}: ${r.message}`);
+    return r.entry!;
+  };
+
+  it("takes a plain number in the stock unit, as before", () => {
+    expect(ok("480", pepper)).toEqual({ quantity: "480", unit: null, inStock: "480" });
+    expect(ok(" 12,50 ", pepper)).toEqual({ quantity: "12.5", unit: null, inStock: "12.5" });
+    expect(ok(".5", hank)).toEqual({ quantity: "0.5", unit: null, inStock: "0.5" });
+    expect(parseQuantityEntry("", pepper)).toEqual({ ok: true, entry: null });
+    expect(parseQuantityEntry(null, pepper)).toEqual({ ok: true, entry: null });
+  });
+
+  it("converts a unit of the same dimension exactly (NIST factors, no float)", () => {
+    expect(ok("2.5 lb", pepper)).toEqual({ quantity: "2.5", unit: "lb", inStock: "1133.980925" });
+    expect(ok("1 oz", pepper).inStock).toBe("28.349523125");
+    expect(ok("0.3 kg", pepper).inStock).toBe("300");
+    expect(ok("1,5 kg", pepper).inStock).toBe("1500");
+    expect(ok("2.5lb", pepper)).toMatchObject({ unit: "lb", inStock: "1133.980925" });
+    expect(ok("3 pounds", pepper).inStock).toBe("1360.77711");
+    expect(ok("12 ft", twine)).toEqual({ quantity: "12", unit: "ft", inStock: "3.6576" });
+    expect(ok("1 gal", brine).inStock).toBe("3785.411784");
+    expect(ok("2 fl. oz.", brine).inStock).toBe("59.147059125");
+  });
+
+  it("keeps the stock unit under any of its names as a plain number", () => {
+    expect(ok("300 g", pepper)).toEqual({ quantity: "300", unit: null, inStock: "300" });
+    expect(ok("300 grams", pepper)).toEqual({ quantity: "300", unit: null, inStock: "300" });
+    expect(ok("1.5 hank", hank)).toEqual({ quantity: "1.5", unit: null, inStock: "1.5" });
+    expect(ok("1.5 hanks", hank)).toEqual({ quantity: "1.5", unit: null, inStock: "1.5" });
+    expect(ok("2 pc", hank)).toEqual({ quantity: "2", unit: null, inStock: "2" });
+  });
+
+  it("takes a length for a put-up casing: 12 ft of a 91.44 m hank is exactly 0.04 hank", () => {
+    expect(ok("12 ft", hank)).toEqual({ quantity: "12", unit: "ft", inStock: "0.04" });
+    expect(ok("45.72 m", hank).inStock).toBe("0.5");
+    expect(ok("100 yd", hank).inStock).toBe("1");
+    // no finite decimal: kept exact to 60 digits, rounded only as stored (half-even, 12 decimals)
+    const ten = ok("10 m", hank);
+    expect(ten.inStock.startsWith("0.10936132983377077865266841644794400699912510936132983")).toBe(true);
+    expect(entryAsStored(ten)).toBe("0.109361329834");
+  });
+
+  it("gives the entry back as the grid keeps it and as the database will store it", () => {
+    expect(entryText(ok("2.5 lb", pepper))).toBe("2.5 lb");
+    expect(entryText(ok("480", pepper))).toBe("480");
+    expect(entryText(ok("1.5 hanks", hank))).toBe("1.5");
+    expect(entryAsStored(ok("2.5 lb", pepper))).toBe("1133.980925");
+    // what the cell holds reads back to the same entry (undo puts it back through the parser)
+    const again = parseQuantityEntry(entryText(ok("2.5 lb", pepper)), pepper);
+    expect(again).toEqual({ ok: true, entry: { quantity: "2.5", unit: "lb", inStock: "1133.980925" } });
+  });
+
+  it("refuses another dimension, naming the unit, the item's unit and what it takes", () => {
+    const litres = parseQuantityEntry("2 l", pepper);
+    expect(litres).toMatchObject({ ok: false, field: "unit" });
+    expect(litres.ok ? "" : litres.message).toBe('"l" is a volume unit, and this item is counted in g (weight): use g, mg, kg, oz or lb.');
+    const kilos = parseQuantityEntry("2 kg", hank);
+    expect(kilos).toMatchObject({ ok: false, field: "unit" });
+    expect(kilos.ok ? "" : kilos.message).toContain('"kg" is a weight unit');
+    expect(kilos.ok ? "" : kilos.message).toContain("hanks");
+    expect(kilos.ok ? "" : kilos.message).toContain("ft");
+    expect(parseQuantityEntry("3 m", pepper)).toMatchObject({ ok: false, field: "unit", message: expect.stringContaining("length unit") });
+    expect(parseQuantityEntry("3 pc", pepper)).toMatchObject({ ok: false, field: "unit", message: expect.stringContaining("count unit") });
+  });
+
+  it("refuses unknown units, negatives, words and exponents", () => {
+    expect(parseQuantityEntry("2 tubs", pepper)).toMatchObject({ ok: false, field: "unit", message: '"tubs" is not a unit for this item: use g, mg, kg, oz or lb.' });
+    expect(parseQuantityEntry("-2 kg", pepper)).toMatchObject({ ok: false, field: "quantity", message: expect.stringContaining("negative") });
+    for (const bad of ["lots", "1e3", "1.2.3", "kg 2", "2 kg 3", "0.1234567890123 kg", "NaN", "Infinity"]) {
+      expect(parseQuantityEntry(bad, pepper), bad).toMatchObject({ ok: false, field: "quantity", message: expect.stringContaining("Enter a plain number") });
+    }
+    expect(parseQuantityEntry("lots", hank)).toMatchObject({ message: expect.stringContaining("1.5 hanks or 12 ft") });
+  });
+
+  it("lists the units an item takes, its stock unit first", () => {
+    expect(acceptedUnitsText(pepper)).toBe("g, mg, kg, oz or lb");
+    expect(acceptedUnitsText(hank)).toBe("hanks, mm, cm, m, in, ft or yd");
+  });
+});
+
 describe("expiry and stock status", () => {
   it("counts calendar days and bands them with a word", () => {
     expect(daysLeft("2026-12-14", "2026-12-02")).toBe(12);
@@ -137,7 +228,7 @@ describe("expiry and stock status", () => {
   it("flags out and below the reorder point on what is available", () => {
     expect(stockStatus("0", "5")).toEqual({ tone: "ember", word: "out" });
     expect(stockStatus("0", null)).toEqual({ tone: "ember", word: "out" });
-    expect(stockStatus("5", "5")).toEqual({ tone: "amber", word: "below reorder point" });
+    expect(stockStatus("5", "5")).toEqual({ tone: "amber", word: "to reorder" });
     expect(stockStatus("5.000000000001", "5")).toBeNull();
     expect(stockStatus("12", null)).toBeNull();
   });

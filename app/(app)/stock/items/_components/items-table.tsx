@@ -1,4 +1,6 @@
 // The catalogue table, grouped by category. Server-safe (no hooks): the edit button is a slot.
+// Below 1280 px (a 1024 x 768 screen with the rail) the nitrite / nitrate and lots columns fold
+// into the category and unit cells, so the row and its Edit button fit without scrolling sideways.
 import type { ReactNode } from "react";
 import { Archive } from "lucide-react";
 import { CureMarker } from "@/components/cure/cure-marker";
@@ -11,6 +13,11 @@ import { calibreText, CATEGORY_LABELS, categoryDetail, percentOf, putUpText } fr
 
 const PUT_UP_SHORT: Record<PutUpKind, string> = { hank: "hank", beef_set: "set", tubed_strand: "strand", stick: "stick", box: "box" };
 
+/** "lots and dates", "by lot", "no lots": the tracking, in the unit cell on narrow screens. */
+function lotsText(item: Item): string {
+  return item.trackLots ? (item.trackDates ? "by lot and date" : "by lot") : "no lots";
+}
+
 export function ItemsTable({ items, editButton }: { items: Item[]; editButton?: (item: Item) => ReactNode }) {
   const columns = editButton ? 7 : 6;
   return (
@@ -18,10 +25,10 @@ export function ItemsTable({ items, editButton }: { items: Item[]; editButton?: 
       <THead>
         <Th>Item · SKU</Th>
         <Th>Category</Th>
-        <Th>Unit</Th>
+        <Th>Unit<span className="xl:hidden"> · lots</span></Th>
         <Th>Calibre · put-up</Th>
-        <Th numeric>Nitrite / nitrate</Th>
-        <Th>Lots</Th>
+        <Th numeric className="hidden xl:table-cell">Nitrite / nitrate</Th>
+        <Th className="hidden xl:table-cell">Lots</Th>
         {editButton ? <Th action /> : null}
       </THead>
       {ITEM_CATEGORIES.map((category) => {
@@ -43,28 +50,34 @@ export function ItemsTable({ items, editButton }: { items: Item[]; editButton?: 
                     <span className="block whitespace-nowrap text-sm font-normal text-brine">{item.sku}</span>
                     {item.archived ? <span className="mt-1 block"><Badge icon={<Archive />}>Archived</Badge></span> : null}
                   </RowHeader>
-                  <Td className="whitespace-nowrap">
+                  <Td>
                     {item.cure ? <CureMarker /> : CATEGORY_LABELS[item.category].one}
                     {detail ? <span className="block text-sm text-brine">{detail}</span> : null}
+                    {item.cure ? (
+                      <span className="num block whitespace-nowrap text-sm text-pepper-soft xl:hidden">
+                        nitrite {percentOf(item.cure.nitriteFraction)} % · nitrate {percentOf(item.cure.nitrateFraction)} %
+                      </span>
+                    ) : null}
                   </Td>
-                  <Td className="whitespace-nowrap">
+                  <Td>
                     {item.stockUnit}
-                    {item.casing?.putUp ? <span className="block text-sm text-brine">1 = {PUT_UP_SHORT[item.casing.putUp]}</span> : null}
+                    {item.casing?.putUp ? <span className="block whitespace-nowrap text-sm text-brine">1 = {PUT_UP_SHORT[item.casing.putUp]}</span> : null}
+                    <span className="block whitespace-nowrap text-sm text-brine xl:hidden">{lotsText(item)}</span>
                   </Td>
-                  <Td className="whitespace-nowrap">
+                  <Td>
                     {item.casing ? (
                       <>
-                        <span className="num font-semibold">{calibreText(item.casing)}</span>
+                        <span className="num whitespace-nowrap font-semibold">{calibreText(item.casing)}</span>
                         <span className="block text-sm text-brine num">{putUpText(item.casing)}</span>
                       </>
                     ) : <span className="text-brine">—</span>}
                   </Td>
-                  <Td numeric className="whitespace-nowrap">
+                  <Td numeric className="hidden whitespace-nowrap xl:table-cell">
                     {item.cure ? (
                       <span className="font-semibold">{percentOf(item.cure.nitriteFraction)} % / {percentOf(item.cure.nitrateFraction)} %</span>
                     ) : <span className="text-brine">—</span>}
                   </Td>
-                  <Td className="whitespace-nowrap">
+                  <Td className="hidden whitespace-nowrap xl:table-cell">
                     {item.trackLots ? (item.trackDates ? "Lots, dates" : "Lots") : <span className="text-brine">Off</span>}
                   </Td>
                   {editButton ? <Td action>{editButton(item)}</Td> : null}
