@@ -181,4 +181,6 @@ export interface StockMovementRow {
   user_id: string | null;
   occurred_at: Date;
   recorded_at: Date;
+  /** production: the batch the stock was used for */
+  batch_id: string | null;
 }

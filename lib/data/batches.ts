@@ -10,6 +10,7 @@
 //   lots expiring on or before the production day are skipped), splitting across lots, all or
 //   nothing per batch, under row locks on the balances so two batches never hold the same stock.
 import "server-only";
+import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
 import { db } from "../../db/client";
 import type { ItemRow, KitchenRow } from "../../db/types";
@@ -18,13 +19,13 @@ import type { CurrentUser } from "../auth/current-user";
 import { casingNeed, CasingInputError } from "../casing/calculate";
 import { CURE_CAUTION, type CureCalculation } from "../cure";
 import { AppError, conflict, notFound, validation } from "../http/errors";
-import { billOfMaterials, BomLineError, roundCure } from "../recipes/bom";
-import { convert, Dec, dec, plain, toStored, UnitError, ZERO } from "../units";
-import type { BatchCreateInput } from "../validation/batches";
+import { billOfMaterials, BomLineError, checkCureAmounts, roundCure } from "../recipes/bom";
+import { convert, Dec, dec, plain, toStockUnits, toStored, UnitError, ZERO } from "../units";
+import type { BatchCreateInput, BatchProduceInput } from "../validation/batches";
 import { casingBasisForItem } from "./casing-calculation";
 import { getCureSettings } from "./companies";
 import { loadItemForLedger } from "./items-for-ledger";
-import { inTransaction } from "./ledger";
+import { inTransaction, postInTransaction } from "./ledger";
 import { loadVersionSpec } from "./recipes";
 
 export type BatchStatus = "planned" | "reserved" | "produced" | "on_hold" | "cancelled";
@@ -66,6 +67,8 @@ export interface Batch {
   caution: string | null;
   createdAt: string;
   createdBy: { id: string; name: string } | null;
+  /** what was made: null until the batch is produced */
+  production: Production | null;
 }
 
 interface BatchRow {
@@ -73,6 +76,8 @@ interface BatchRow {
   meat_block_g: string; link_count: number | null; link_weight_g: string | null; casing_item_id: string | null; status: BatchStatus;
   casing_metres: string | null; casing_source: string | null;
   cure_check: CureCalculation | null; note: string; batch_code: string | null; created_by: string | null; created_at: Date;
+  actual_meat_block_g: string | null; actual_cure_check: CureCalculation | null; hold_reason: string | null; release_reason: string | null;
+  released_by: string | null; released_at: Date | null; produced_by: string | null; produced_at: Date | null; production_posting_id: string | null;
 }
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
@@ -248,6 +253,14 @@ async function describeBatches(k: Knex | Knex.Transaction, actor: CurrentUser, r
   const recipes: { id: string; recipe_id: string; version: number; code: string; name: string }[] = await k("recipe_versions as v").join("recipes as r", "r.id", "v.recipe_id")
     .whereIn("v.id", rows.map((r) => r.recipe_version_id)).select("v.id", "v.recipe_id", "v.version", "r.code", "r.name");
   const people: { id: string; name: string }[] = await k("app_users").whereIn("id", rows.map((r) => r.created_by).filter((x): x is string => !!x)).select("id", "name");
+  const producedIds = rows.filter((r) => r.production_posting_id).map((r) => r.id);
+  const used: { batch_id: string; item_id: string; lot_id: string; code: string; quantity: string }[] = producedIds.length
+    ? await k("stock_movements as m").join("lots as l", "l.id", "m.lot_id").whereIn("m.batch_id", producedIds).where("m.kind", "use")
+        .groupBy("m.batch_id", "m.item_id", "m.lot_id", "l.code").havingRaw("sum(m.delta) <> 0")
+        .select("m.batch_id", "m.item_id", "m.lot_id", "l.code", k.raw("(-sum(m.delta))::text as quantity"))
+    : [];
+  const people2: { id: string; name: string }[] = await k("app_users")
+    .whereIn("id", rows.flatMap((r) => [r.produced_by, r.released_by]).filter((x): x is string => !!x)).select("id", "name");
   const itemIds = [...new Set(lines.map((l) => l.item_id))];
   const activeKitchens = kitchens.filter((kk) => !kk.archived_at).map((kk) => kk.id);
   const today = await companyToday(k, actor.companyId);
@@ -333,8 +346,40 @@ async function describeBatches(k: Knex | Knex.Transaction, actor: CurrentUser, r
       caution: b.cure_check ? CURE_CAUTION : null,
       createdAt: b.created_at.toISOString(),
       createdBy: b.created_by ? { id: b.created_by, name: creator?.name ?? "Former user" } : null,
+      production: b.production_posting_id ? productionOf(b, batchLines, used.filter((u) => u.batch_id === b.id), people2) : null,
     };
   });
+}
+
+function productionOf(
+  b: BatchRow,
+  lines: BatchLine[],
+  used: { item_id: string; lot_id: string; code: string; quantity: string }[],
+  people: { id: string; name: string }[],
+): Production {
+  const person = (id: string | null) => (id ? { id, name: people.find((p) => p.id === id)?.name ?? "Former user" } : null);
+  const seen = new Set<string>();
+  return {
+    batchCode: b.batch_code!,
+    producedAt: b.produced_at!.toISOString(),
+    producedBy: person(b.produced_by),
+    actualMeatBlockG: plain(dec(b.actual_meat_block_g!)),
+    lines: lines.map((l) => {
+      // the same item on two lines: its use is shown on the first
+      const lots = seen.has(l.item.id) ? [] : used.filter((u) => u.item_id === l.item.id);
+      seen.add(l.item.id);
+      const actual = lots.reduce((s, u) => s.plus(dec(u.quantity)), ZERO);
+      return {
+        position: l.position, item: { id: l.item.id, sku: l.item.sku, name: l.item.name, unit: l.item.unit },
+        planned: l.quantity, actual: plain(actual), variance: plain(actual.minus(dec(l.quantity))),
+        lots: lots.map((u) => ({ lotId: u.lot_id, code: u.code, quantity: plain(dec(u.quantity)) })),
+      };
+    }),
+    cure: b.actual_cure_check,
+    hold: b.hold_reason
+      ? { reason: b.hold_reason, releasedAt: b.released_at?.toISOString() ?? null, releasedBy: person(b.released_by), releaseReason: b.release_reason }
+      : null,
+  };
 }
 
 export async function getBatch(actor: CurrentUser, id: string): Promise<Batch> {
@@ -411,7 +456,7 @@ async function reserveIn(trx: Knex.Transaction, actor: CurrentUser, batch: Batch
   return [];
 }
 
-async function lockBatch(trx: Knex.Transaction, actor: CurrentUser, id: string, action: "planning.manage"): Promise<BatchRow> {
+async function lockBatch(trx: Knex.Transaction, actor: CurrentUser, id: string, action: "planning.manage" | "planning.read"): Promise<BatchRow> {
   const rows = await loadBatchRows(trx, actor, (q) => q.where({ id }).forUpdate());
   const batch = rows[0];
   if (!batch) throw notFound("Batch");
@@ -483,6 +528,155 @@ export async function cancelBatch(actor: CurrentUser, id: string): Promise<Batch
     if (batch.status !== "planned" && batch.status !== "reserved") throw conflict(`This batch is ${batch.status}: only a planned batch can be cancelled.`);
     await releaseIn(trx, batch);
     await trx("batches").where({ id: batch.id }).update({ status: "cancelled", updated_at: trx.fn.now() });
+  });
+  return getBatch(actor, id);
+}
+
+// ---------------------------------------------------------------------------------------------
+// Production
+
+export interface Production {
+  batchCode: string;
+  producedAt: string;
+  producedBy: { id: string; name: string } | null;
+  actualMeatBlockG: string;
+  lines: {
+    position: number;
+    item: { id: string; sku: string; name: string; unit: string };
+    planned: string;
+    actual: string;
+    /** actual - planned, signed */
+    variance: string;
+    lots: { lotId: string; code: string; quantity: string }[];
+  }[];
+  /** the cure check on the weights actually used */
+  cure: CureCalculation | null;
+  hold: { reason: string; releasedAt: string | null; releasedBy: { id: string; name: string } | null; releaseReason: string | null } | null;
+}
+
+const HOLD_ADVICE =
+  "Follow the HACCP plan's corrective action for this batch (segregate, do not release for sale); a manager releases the hold with a reason once it is dealt with.";
+
+/**
+ * Records a batch as made: the actual meat block, what was weighed per line and from which lots,
+ * posted as use movements naming the batch, all in one transaction. The reservation is released
+ * and the stock drawn: named lots, else the reserved lots first, then first-expired-first-out.
+ * The cure check runs again on the actual weights; over a statutory maximum the batch goes on hold.
+ */
+export async function produceBatch(actor: CurrentUser, id: string, input: BatchProduceInput): Promise<Batch> {
+  await inTransaction(async (trx) => {
+    const batch = await lockBatch(trx, actor, id, "planning.read");
+    assertCan(actor, "production.post", { kitchenId: batch.kitchen_id });
+    if (batch.status !== "planned" && batch.status !== "reserved") throw conflict(`This batch is ${batch.status}: it cannot be produced again.`, "NOT_PRODUCIBLE");
+    const kitchen: KitchenRow = await trx("kitchens").where({ id: batch.kitchen_id }).first();
+    const actualMeatG = massIn(input.actualMeatBlock, "g", "actualMeatBlock");
+    if (actualMeatG.lte(ZERO)) throw validation({ "actualMeatBlock.quantity": ["The meat block must be more than zero."] });
+
+    const lines: { id: string; position: number; item_id: string; quantity: string; role: BatchLine["role"]; stock_unit: string }[] = await trx("batch_lines as bl")
+      .join("items as i", "i.id", "bl.item_id")
+      .where("bl.batch_id", batch.id).orderBy("bl.position").select("bl.id", "bl.position", "bl.item_id", "bl.quantity", "bl.role", "i.stock_unit");
+    const held: { batch_line_id: string; lot_id: string; quantity: string }[] = await trx("reservations as r").join("lots as l", "l.id", "r.lot_id")
+      .where("r.batch_id", batch.id).orderByRaw("l.date is null, l.date, l.received_on, l.id").select("r.batch_line_id", "r.lot_id", "r.quantity");
+    const given = new Map(input.lines.map((l, i) => [l.position, { ...l, index: i }]));
+    for (const [position, g] of given) {
+      if (!lines.some((l) => l.position === position)) throw validation({ [`lines.${g.index}.position`]: [`This batch has no line ${position}.`] });
+    }
+
+    // what was used per line, in the stock unit
+    const actual = new Map<number, Dec>();
+    for (const line of lines) {
+      const g = given.get(line.position);
+      if (!g?.quantity) {
+        actual.set(line.position, dec(line.quantity));
+        continue;
+      }
+      const item = await loadItemForLedger(trx, actor.companyId, line.item_id);
+      try {
+        actual.set(line.position, toStockUnits(g.quantity, g.unit ?? item.row.stock_unit, item.units));
+      } catch (e) {
+        if (e instanceof UnitError) throw validation({ [`lines.${g.index}.unit`]: [e.message] });
+        throw e;
+      }
+    }
+
+    await releaseIn(trx, batch);
+    const postingId = randomUUID();
+    const code = await nextBatchCode(trx, actor.companyId, batch);
+    for (const line of lines) {
+      const amount = actual.get(line.position)!;
+      if (amount.lte(0)) continue;
+      const g = given.get(line.position);
+      const use = (quantity: Dec, lot?: string, field?: string) =>
+        postInTransaction(trx, actor, {
+          kind: "use", kitchen: kitchen.code, item: line.item_id, quantity: toStored(quantity), unit: line.stock_unit, lot, reason: `Production of batch ${code}`,
+        }, postingId, { batchId: batch.id }).catch((e: unknown) => {
+          if (e instanceof AppError && field) throw new AppError(e.status, e.code, `Line ${line.position}: ${e.message}`, { ...(e.details as object), fields: { [field]: [e.message] } });
+          throw e;
+        });
+      if (g?.lots?.length) {
+        const sum = g.lots.reduce((s, l) => s.plus(dec(l.quantity)), ZERO);
+        if (!sum.eq(amount)) throw validation({ [`lines.${g.index}.lots`]: [`The lots add up to ${plain(sum)}, not the ${plain(amount)} used.`] });
+        for (const [j, l] of g.lots.entries()) if (dec(l.quantity).gt(0)) await use(dec(l.quantity), l.lot, `lines.${g.index}.lots.${j}.lot`);
+        continue;
+      }
+      let left = amount;
+      for (const r of held.filter((h) => h.batch_line_id === line.id)) {
+        if (left.lte(0)) break;
+        const take = Dec.min(dec(r.quantity), left);
+        await use(take, r.lot_id, g ? `lines.${g.index}.quantity` : undefined);
+        left = left.minus(take);
+      }
+      if (left.gt(0)) await use(left, undefined, g ? `lines.${g.index}.quantity` : undefined);
+    }
+
+    // the cure check again, on what was actually weighed
+    const { spec } = await loadVersionSpec(trx, actor.companyId, batch.recipe_version_id);
+    const settings = await getCureSettings(actor);
+    const bom = billOfMaterials(spec, actualMeatG);
+    const cureGrams = new Map(bom.lines.filter((l) => l.item.category === "cure").map((l) => [l.position, actual.get(l.position) ?? ZERO]));
+    const check = checkCureAmounts(spec, bom, cureGrams, { table: settings.regulatoryTable, scaleResolutionG: settings.scaleResolutionG });
+    const over = check?.blocked
+      ? check.checks.filter((c) => !c.within && c.severity === "block").map((c) => `${c.substance} ${c.ppm} ppm is over the ${c.limitPpm} ppm maximum (${c.entry})`).join("; ")
+      : null;
+    await trx("batches").where({ id: batch.id }).update({
+      status: over ? "on_hold" : "produced",
+      batch_code: code,
+      actual_meat_block_g: toStored(actualMeatG),
+      actual_cure_check: check ? JSON.stringify(check) : null,
+      hold_reason: over ? `On hold: ${over}. ${HOLD_ADVICE}` : null,
+      produced_by: actor.id,
+      produced_at: trx.fn.now(),
+      production_posting_id: postingId,
+      note: input.note ? (batch.note ? `${batch.note}\n${input.note}` : input.note) : batch.note,
+      updated_at: trx.fn.now(),
+    });
+  });
+  return getBatch(actor, id);
+}
+
+/** RECIPE-YYMMDD-N: the recipe's code, the production day and a running number (under a company lock). */
+async function nextBatchCode(trx: Knex.Transaction, companyId: string, batch: BatchRow): Promise<string> {
+  await trx.raw("select pg_advisory_xact_lock(hashtext(?))", [`batch-code:${companyId}`]);
+  const recipe: { code: string } = await trx("recipes").where({ id: batch.recipe_id }).first("code");
+  const prefix = `${recipe.code}-${batch.planned_for.slice(2).replace(/-/g, "")}-`;
+  const taken: { n: string | null } = await trx("batches").where({ company_id: companyId }).whereLike("batch_code", `${prefix}%`)
+    .first(trx.raw("max(substring(batch_code from ?)::int)::text as n", [`^${prefix.replace(/[-]/g, "\\-")}(\\d+)$`]));
+  return `${prefix}${Number(taken?.n ?? 0) + 1}`;
+}
+
+/** A manager releases a batch held over a cure limit, with a reason (audited). */
+export async function releaseHold(actor: CurrentUser, id: string, reason: string): Promise<Batch> {
+  await inTransaction(async (trx) => {
+    const batch = await lockBatch(trx, actor, id, "planning.read");
+    assertCan(actor, "limits.override", { kitchenId: batch.kitchen_id });
+    if (batch.status !== "on_hold") throw conflict(`This batch is ${batch.status}, not on hold.`);
+    await trx("batches").where({ id: batch.id }).update({
+      status: "produced", release_reason: reason, released_by: actor.id, released_at: trx.fn.now(), updated_at: trx.fn.now(),
+    });
+    await trx("audit_events").insert({
+      company_id: actor.companyId, actor_id: actor.id, action: "batch.hold_released", subject_type: "batch", subject_id: batch.id, reason,
+      details: JSON.stringify({ batchCode: batch.batch_code, holdReason: batch.hold_reason }),
+    });
   });
   return getBatch(actor, id);
 }

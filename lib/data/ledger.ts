@@ -87,6 +87,8 @@ interface PostContext {
   enteredQuantity: string;
   enteredUnit: string;
   reason: string | null;
+  /** production: the batch the stock was used for (traceability) */
+  batchId?: string | null;
 }
 
 type MovementFields = Pick<StockMovementRow, "kind" | "kitchen_id" | "lot_id" | "delta"> &
@@ -102,6 +104,7 @@ function movementRow(c: PostContext, f: MovementFields) {
     reason: c.reason,
     user_id: c.actor.id,
     occurred_at: c.occurredAt,
+    batch_id: c.batchId ?? null,
     counted: null,
     other_kitchen_id: null,
     reverses_id: null,
@@ -137,13 +140,14 @@ async function takeStock(c: PostContext, f: MovementFields, amount: Dec, fromRes
         returning company_id, kitchen_id, item_id, lot_id
      )
      insert into stock_movements (company_id, posting_id, kind, kitchen_id, item_id, lot_id, delta, counted, entered_quantity,
-                                  entered_unit, unit_cost, reason, other_kitchen_id, reverses_id, user_id, occurred_at)
-     select t.company_id, ?, ?, t.kitchen_id, t.item_id, t.lot_id, ?::numeric, ?::numeric, ?, ?, l.unit_cost, ?, ?, ?, ?, ?
+                                  entered_unit, unit_cost, reason, other_kitchen_id, reverses_id, user_id, occurred_at, batch_id)
+     select t.company_id, ?, ?, t.kitchen_id, t.item_id, t.lot_id, ?::numeric, ?::numeric, ?, ?, l.unit_cost, ?, ?, ?, ?, ?, ?
        from taken t join lots l on l.id = t.lot_id
      returning *`,
     [
       toStored(amount), f.kitchen_id, f.lot_id, toStored(amount),
       m.posting_id, m.kind, m.delta, m.counted, m.entered_quantity, m.entered_unit, m.reason, m.other_kitchen_id, m.reverses_id, m.user_id, m.occurred_at,
+      m.batch_id,
     ],
   );
   return r.rows[0] ?? null;
@@ -333,7 +337,13 @@ async function count(c: PostContext, input: MovementInput, counted: Dec): Promis
 }
 
 /** Posts one movement inside the caller's transaction (a count sheet posts many in one). */
-export async function postInTransaction(trx: Knex.Transaction, actor: CurrentUser, input: MovementInput, postingId: string): Promise<StockMovementRow[]> {
+export async function postInTransaction(
+  trx: Knex.Transaction,
+  actor: CurrentUser,
+  input: MovementInput,
+  postingId: string,
+  opts: { batchId?: string } = {},
+): Promise<StockMovementRow[]> {
   const occurredAt = occurredAtOf(input);
   const kitchen = await kitchenByCode(trx, actor, input.kitchen);
   assertCan(actor, input.kind === "receipt" ? "stock.receive" : "stock.post", { kitchenId: kitchen.id });
@@ -342,7 +352,7 @@ export async function postInTransaction(trx: Knex.Transaction, actor: CurrentUse
   const amount = stockQuantity(input, item);
   const c: PostContext = {
     trx, actor, postingId, item, kitchen, occurredAt,
-    enteredQuantity: input.quantity, enteredUnit: input.unit, reason: input.reason ?? null,
+    enteredQuantity: input.quantity, enteredUnit: input.unit, reason: input.reason ?? null, batchId: opts.batchId ?? null,
   };
   switch (input.kind) {
     case "receipt": return receive(c, input, amount);
@@ -433,6 +443,7 @@ export async function reverseMovement(actor: CurrentUser, id: string, reason?: s
       const c: PostContext = {
         trx, actor, postingId, item, kitchen, occurredAt: new Date(),
         enteredQuantity: dec(leg.delta).neg().toFixed(), enteredUnit: item.row.stock_unit, reason: reason ?? `Reversal of ${leg.id}`,
+        batchId: leg.batch_id, // a reversed production use stays on the batch's trace
       };
       const f = { kind: leg.kind, kitchen_id: leg.kitchen_id, lot_id: leg.lot_id, other_kitchen_id: leg.other_kitchen_id, reverses_id: leg.id };
       const delta = dec(leg.delta);

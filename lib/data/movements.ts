@@ -1,6 +1,7 @@
 // Reading the ledger: filtered, newest first, in pages (keyset on occurred_at, id), each movement
 // with the name of the person who posted it.
 import "server-only";
+import { toCsv } from "../csv";
 import type { z } from "zod";
 import { db } from "../../db/client";
 import type { StockMovementRow } from "../../db/types";
@@ -61,13 +62,8 @@ const userCell = (m: MovementEntry) => m.userName ?? (m.userId ? "former user" :
 
 /** RFC 4180 CSV; cells that a spreadsheet would run as a formula are prefixed with '. */
 export function movementsCsv(movements: MovementEntry[]): string {
-  const cell = (v: string | null) => {
-    let s = v ?? "";
-    if (/^[=+\-@\t\r]/.test(s) && !/^-?\d/.test(s)) s = `'${s}`;
-    return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-  };
-  const lines = movements.map((m) =>
-    [m.occurredAt, m.kind, m.kitchen.code, m.otherKitchen?.code ?? "", m.item.sku, m.item.name, m.lot.code, m.delta, m.item.unit, m.counted,
-      m.enteredQuantity, m.enteredUnit, m.unitCost, m.reason, m.reversesId, m.id, userCell(m)].map(cell).join(","));
-  return [CSV_COLUMNS.join(","), ...lines].join("\r\n") + "\r\n";
+  return toCsv(CSV_COLUMNS, movements.map((m) => [
+    m.occurredAt, m.kind, m.kitchen.code, m.otherKitchen?.code ?? "", m.item.sku, m.item.name, m.lot.code, m.delta, m.item.unit, m.counted,
+    m.enteredQuantity, m.enteredUnit, m.unitCost, m.reason, m.reversesId, m.id, userCell(m),
+  ]));
 }

@@ -20,6 +20,7 @@ import { SESSION_COOKIE } from "../auth/session";
 import type { CapturedMail } from "../data/captured-mail";
 import type { CasingCalculation } from "../data/casing-calculation";
 import type { Batch } from "../data/batches";
+import type { BatchTrace, LotTrace } from "../data/trace";
 import type { Company } from "../data/companies";
 import type { Recipe, RecipeSummary } from "../data/recipes";
 import type { InvitationSummary } from "../data/invitations";
@@ -31,7 +32,10 @@ import { invitationAcceptInput, passwordResetConfirmInput, passwordResetRequestI
 import { companyUpdateInput, invitationCreateInput, kitchenCreateInput, kitchenUpdateInput, userUpdateInput } from "../validation/company";
 import { casingCalculationInput, casingCalculationResponse } from "../validation/casing";
 import { cureCalculationInput, cureCalculationResponse } from "../validation/cure";
-import { batchCreateInput, batchListQuery, batchListResponse, batchReserveAllInput, batchResponse, reserveAllResponse } from "../validation/batches";
+import {
+  batchCreateInput, batchListQuery, batchListResponse, batchProduceInput, batchReserveAllInput, batchResponse, batchTraceResponse, holdReleaseInput, lotTraceResponse,
+  reserveAllResponse, traceQuery,
+} from "../validation/batches";
 import { itemCreateInput, itemListQuery, itemPatchInput } from "../validation/items";
 import { recipeCreateInput, recipeGetQuery, recipeListQuery, recipeListResponse, recipeResponse, recipeVersionInput } from "../validation/recipes";
 import {
@@ -68,6 +72,8 @@ export type ResponseShapesMatch = [
   Assert<Same<z.infer<typeof casingCalculationResponse>, CasingCalculation>>,
   Assert<Same<z.infer<typeof recipeResponse>, Recipe>>,
   Assert<Same<z.infer<typeof batchResponse>, Batch>>,
+  Assert<Same<z.infer<typeof lotTraceResponse>, LotTrace>>,
+  Assert<Same<z.infer<typeof batchTraceResponse>, BatchTrace>>,
   Assert<Same<z.infer<typeof recipeListResponse>, { recipes: RecipeSummary[] }>>,
   Assert<Same<z.infer<typeof transferLotChoicesResponse>, TransferLotChoices>>,
 ];
@@ -566,6 +572,47 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
     params: BATCH_ID,
     success: { status: 200, description: "The cancelled batch.", schema: batchResponse },
     errors: { 403: [["FORBIDDEN", "Not your kitchen."]], 404: [["NOT_FOUND", "No such batch in your company."]], 409: [["CONFLICT", "The batch is produced, on hold or cancelled."]] },
+  },
+  {
+    method: "post", path: "/api/batches/{id}/produce", operationId: "produceBatch", tag: "Planning", auth: true, idempotent: true,
+    summary: "Record a batch as made",
+    description: "The actual meat block, what was weighed per line (default: as planned) and from which lots (default: the reserved ones, then first-expired-first-out), posted as use movements naming the batch in one transaction; the batch gets its code (RECIPE-YYMMDD-N) and the variance to plan. The cure check runs again on the actual weights: over a statutory maximum the batch is put on hold with the caution.",
+    params: BATCH_ID,
+    body: requestBody("BatchProduceInput", batchProduceInput),
+    success: { status: 200, description: "The batch with its production (and hold, if any).", schema: batchResponse },
+    errors: {
+      403: [["FORBIDDEN", "Not your kitchen, or your role does not record production."]],
+      404: [["NOT_FOUND", "No such batch or lot in your company."]],
+      409: [["NOT_PRODUCIBLE", "The batch is already produced, on hold or cancelled."], ["INSUFFICIENT_STOCK", "A lot or the kitchen has less than was used."], ["LOT_EXPIRED", "A named lot is past its date: it cannot be used."]],
+      422: [["VALIDATION", "A field is wrong (a line the batch does not have, lots not adding up to the quantity used, a unit of the wrong dimension): details.fields names it."]],
+    },
+  },
+  {
+    method: "post", path: "/api/batches/{id}/release-hold", operationId: "releaseBatchHold", tag: "Planning", auth: true, idempotent: true,
+    summary: "Release a batch held over a cure limit",
+    description: "A manager (or admin) action, with the corrective action taken as the reason; recorded in the audit trail.",
+    params: BATCH_ID,
+    body: requestBody("HoldReleaseInput", holdReleaseInput),
+    success: { status: 200, description: "The released batch.", schema: batchResponse },
+    errors: { 403: [["FORBIDDEN", "Only a manager or admin releases a hold."]], 404: [["NOT_FOUND", "No such batch in your company."]], 409: [["CONFLICT", "The batch is not on hold."]] },
+  },
+  {
+    method: "get", path: "/api/trace/lots/{id}", operationId: "traceLot", tag: "Planning", auth: true,
+    summary: "Trace a lot forward",
+    description: "Who supplied the lot, its movements between kitchens, the batches that used it and what is left where; ?format=csv for a recall file. Shipments to customers are outside the product, and the report says so.",
+    params: z.object({ id: z.uuid().meta({ description: "The lot's id. Not in your company: 404." }) }),
+    query: traceQuery,
+    success: { status: 200, description: "The lot's trace (text/csv with format=csv).", schema: lotTraceResponse },
+    errors: { 403: [["FORBIDDEN", "Your role does not read plans."]], 404: [["NOT_FOUND", "No such lot in your company."]] },
+  },
+  {
+    method: "get", path: "/api/trace/batches/{id}", operationId: "traceBatch", tag: "Planning", auth: true,
+    summary: "Trace a batch back",
+    description: "Every lot a produced batch used, with its supplier, lot code, date and the quantity used; ?format=csv for a recall file.",
+    params: BATCH_ID,
+    query: traceQuery,
+    success: { status: 200, description: "The batch's trace (text/csv with format=csv).", schema: batchTraceResponse },
+    errors: { 403: [["FORBIDDEN", "Your role does not read plans."]], 404: [["NOT_FOUND", "No such produced batch in your company."]] },
   },
   {
     method: "post", path: "/api/batches/reserve-all", operationId: "reserveAllBatches", tag: "Planning", auth: true, idempotent: true,

@@ -168,7 +168,6 @@ export function route<S extends z.ZodType | undefined = undefined, A extends boo
   };
 }
 
-/** The [id] segment as a uuid; anything else cannot name a record, so it is 404 like a missing one. */
 /** The [id] segment that may also be a code or SKU (items, recipes); the data layer resolves it. */
 export function refParam(params: Params, what: string): string {
   const ref = params.id;
@@ -176,6 +175,7 @@ export function refParam(params: Params, what: string): string {
   return ref;
 }
 
+/** The [id] segment as a uuid; anything else cannot name a record, so it is 404 like a missing one. */
 export function idParam(params: Params, what: string): string {
   const id = params.id;
   if (typeof id !== "string" || !/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id)) throw notFound(what);

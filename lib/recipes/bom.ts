@@ -151,6 +151,13 @@ export function checkCure(spec: BomSpec, bom: Bom, opts: CureCheckOptions): Cure
   return calculateCure(cureRequest(spec, bom, cures.map((line) => ({ line, grams: line.quantity })), opts.table), { scaleResolutionG: opts.scaleResolutionG });
 }
 
+/** The cure check on given cure amounts (production: what was weighed), grams per cure line position. */
+export function checkCureAmounts(spec: BomSpec, bom: Bom, grams: ReadonlyMap<number, Dec>, opts: CureCheckOptions): CureCalculation | null {
+  const cures = cureLinesOf(bom).filter((l) => (grams.get(l.position) ?? ZERO).gt(0));
+  if (cures.length === 0) return null;
+  return calculateCure(cureRequest(spec, bom, cures.map((line) => ({ line, grams: grams.get(line.position)! })), opts.table), { scaleResolutionG: opts.scaleResolutionG });
+}
+
 export interface RoundedCure {
   /** grams to weigh per cure line position */
   grams: Map<number, Dec>;

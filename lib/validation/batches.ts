@@ -46,6 +46,29 @@ export const batchReserveAllInput = z.object({
 
 export const batchIdList = z.array(uuid);
 
+export const batchProduceInput = z.object({
+  /** the meat block actually weighed */
+  actualMeatBlock: amount("actual meat block"),
+  /** what was actually weighed per line (default: the planned quantity) and from which lots (default: the reserved ones, then FEFO) */
+  lines: z
+    .array(
+      z.object({
+        position: z.number({ error: "Name the batch line by its position." }).int().positive(),
+        quantity: decimalString({ scale: 12 }).optional(),
+        unit: z.string().trim().min(1).max(40).optional(),
+        lots: z.array(z.object({ lot: uuid, quantity: decimalString({ scale: 12 }) })).max(20).optional(),
+      }),
+    )
+    .max(80)
+    .default([]),
+  note: z.string().trim().max(1000).optional(),
+});
+export type BatchProduceInput = z.infer<typeof batchProduceInput>;
+
+export const holdReleaseInput = z.object({
+  reason: z.string().trim().min(1, "Say why the hold is released (the corrective action taken).").max(1000),
+});
+
 // ---------------------------------------------------------------------------------------------
 // Answers (lib/data/batches.ts Batch); a drift fails `tsc` in lib/http/openapi.ts.
 const decimal = z.string().meta({ description: "Exact decimal string." });
@@ -92,6 +115,35 @@ export const batchResponse = z
     caution: z.string().nullable(),
     createdAt: z.string(),
     createdBy: z.object({ id: z.string(), name: z.string() }).nullable(),
+    production: z
+      .object({
+        batchCode: z.string().meta({ description: "RECIPE-YYMMDD-N, given at production.", example: "YARD-SMK-261207-1" }),
+        producedAt: z.string(),
+        producedBy: z.object({ id: z.string(), name: z.string() }).nullable(),
+        actualMeatBlockG: decimal,
+        lines: z.array(
+          z.object({
+            position: z.number().int(),
+            item: z.object({ id: z.string(), sku: z.string(), name: z.string(), unit: z.string() }),
+            planned: decimal,
+            actual: decimal,
+            variance: decimal.meta({ description: "actual - planned, signed, stock unit." }),
+            lots: z.array(z.object({ lotId: z.string(), code: z.string(), quantity: decimal })),
+          }),
+        ),
+        cure: cureCalculationResponse.nullable().meta({ description: "The cure check on the weights actually used." }),
+        hold: z
+          .object({
+            reason: z.string(),
+            releasedAt: z.string().nullable(),
+            releasedBy: z.object({ id: z.string(), name: z.string() }).nullable(),
+            releaseReason: z.string().nullable(),
+          })
+          .nullable()
+          .meta({ description: "Set when the actual cure was over a statutory maximum: the batch is held until a manager releases it with a reason." }),
+      })
+      .nullable()
+      .meta({ description: "What was made; null until the batch is produced." }),
   })
   .meta({ id: "Batch" });
 
@@ -108,3 +160,35 @@ export const reserveAllResponse = z
     ),
   })
   .meta({ id: "ReserveAllResult" });
+
+export const traceQuery = z.object({ format: z.enum(["json", "csv"], { error: "format is json or csv." }).optional() });
+
+export const lotTraceResponse = z
+  .object({
+    lot: z.object({
+      id: z.string(), code: z.string(), item: z.object({ id: z.string(), sku: z.string(), name: z.string(), unit: z.string() }),
+      supplier: z.string().nullable(), receivedOn: z.string(), date: z.string().nullable(), dateKind: z.string().nullable(),
+    }),
+    movements: z.array(z.object({ kind: z.string(), kitchen: z.string(), otherKitchen: z.string().nullable(), quantity: decimal, occurredAt: z.string(), batchCode: z.string().nullable() })),
+    batches: z.array(z.object({
+      batchId: z.string(), batchCode: z.string(), recipe: z.object({ code: z.string(), name: z.string(), version: z.number().int() }), kitchen: z.string(),
+      producedAt: z.string(), quantity: decimal, status: z.string(),
+    })),
+    onHand: z.array(z.object({ kitchen: z.string(), quantity: decimal })),
+    note: z.string().meta({ description: "Shipments to customers are outside the product; the report says so." }),
+  })
+  .meta({ id: "LotTrace" });
+
+export const batchTraceResponse = z
+  .object({
+    batch: z.object({
+      id: z.string(), batchCode: z.string(), recipe: z.object({ code: z.string(), name: z.string(), version: z.number().int() }), kitchen: z.string(),
+      producedAt: z.string(), status: z.string(), actualMeatBlockG: decimal,
+    }),
+    lots: z.array(z.object({
+      lotId: z.string(), code: z.string(), item: z.object({ sku: z.string(), name: z.string(), unit: z.string() }), supplier: z.string().nullable(),
+      receivedOn: z.string(), date: z.string().nullable(), dateKind: z.string().nullable(), quantity: decimal,
+    })),
+    note: z.string(),
+  })
+  .meta({ id: "BatchTrace" });

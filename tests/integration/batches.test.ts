@@ -7,9 +7,15 @@
 // - 32/35 mm hog hank: 45 kg of filling per 91.44 m (trade-facts §4 [practice]).
 // - FEFO: the earliest expiry first (WHO GDP Annex 5, trade-facts §5); lots expiring on or before
 //   the production day are skipped (the issue's rule).
+import { randomUUID } from "node:crypto";
 import fc from "fast-check";
+import Papa from "papaparse";
 import { beforeAll, describe, expect, it } from "vitest";
 import { POST as cancelRoute } from "../../app/api/batches/[id]/cancel/route";
+import { POST as produceRoute } from "../../app/api/batches/[id]/produce/route";
+import { POST as releaseHoldRoute } from "../../app/api/batches/[id]/release-hold/route";
+import { GET as traceBatchRoute } from "../../app/api/trace/batches/[id]/route";
+import { GET as traceLotRoute } from "../../app/api/trace/lots/[id]/route";
 import { POST as releaseRoute } from "../../app/api/batches/[id]/release/route";
 import { POST as reserveRoute } from "../../app/api/batches/[id]/reserve/route";
 import { GET as batchGet } from "../../app/api/batches/[id]/route";
@@ -22,7 +28,7 @@ import { GET as stockRoute } from "../../app/api/stock/route";
 import { PUT as levelsRoute } from "../../app/api/stock-levels/route";
 import { db } from "../../db/client";
 import { createCompany, tag, type TestCompany } from "../support/factory";
-import { call } from "../support/http";
+import { buildRequest, call } from "../support/http";
 import { sessionCookieFor } from "../support/sessions";
 import { ledgerMismatches } from "../support/stock";
 
@@ -303,5 +309,116 @@ describe("scope", () => {
     expect((await getBatch(mine.body.id, "buyer")).status).toBe(403);
     expect((await getBatch(mine.body.id, "other")).status).toBe(404);
     expect((await plan({ ...body, kitchen: K(0) }, "other")).status).toBe(404);
+  });
+});
+
+describe("production, holds and traceability", () => {
+  const produce = (id: string, body: Record<string, unknown>, who = "kitchen_lead", key?: string) =>
+    call(produceRoute, { path: `/api/batches/${id}/produce`, params: { id }, body, cookie: cookie[who], idempotencyKey: key });
+
+  it("posts use movements from the reserved lots in one go, gives a batch code and the variance; a replay posts nothing more", async () => {
+    const cure = await cureItem();
+    const early = await receive(cure.sku, "15", "g", K(0), lotDate(20));
+    const late = await receive(cure.sku, "50", "g", K(0), lotDate(40));
+    await receive(salt.sku, "5", "kg", K(0));
+    const code = await recipe([{ item: salt.sku, rate: "18", unit: "g/kg" }, { item: cure.sku, rate: "2", unit: "g/kg" }]);
+    const planned = await plan({ kitchen: K(0), recipe: code, plannedFor: day(1), meatBlock: { quantity: "10", unit: "kg" } });
+    expect((await reserve(planned.body.id)).status).toBe(200);
+    const key = randomUUID();
+    // the meat came in at 10.2 kg; the cure weighed was 20.4 g (line 2); salt as planned
+    const body = { actualMeatBlock: { quantity: "10.2", unit: "kg" }, lines: [{ position: 2, quantity: "20.4", unit: "g" }] };
+    const res = await produce(planned.body.id, body, "kitchen_lead", key);
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.status).toBe("produced");
+    const p = res.body.production;
+    expect(p.batchCode).toBe(`${code}-${day(1).slice(2).replace(/-/g, "")}-1`);
+    expect(p.actualMeatBlockG).toBe("10200");
+    expect(p.lines.map((l: { item: { sku: string }; planned: string; actual: string; variance: string }) => [l.item.sku, l.planned, l.actual, l.variance])).toEqual([
+      [salt.sku, "180", "180", "0"],
+      [cure.sku, "20", "20.4", "0.4"],
+    ]);
+    // reserved lots first (15 g of the early lot, 5 g of the late one), the extra 0.4 g FEFO from what is left (the late lot)
+    expect(p.lines[1].lots.map((l: { lotId: string; quantity: string }) => [l.lotId, l.quantity]).sort()).toEqual([[early, "15"], [late, "5.4"]].sort());
+    // 20.4 g x 0.0625 x 1e6 / 10,200 g = 125 ppm, checked again on the actual weights
+    expect(p.cure.nitritePpm).toBe("125.0000");
+    expect(p.hold).toBeNull();
+    expect(Number(await reservedOf(early))).toBe(0);
+    const again = await produce(planned.body.id, body, "kitchen_lead", key);
+    expect(again.body.production.batchCode).toBe(p.batchCode);
+    // salt, the early lot, the late lot's reserved 5 g and its extra 0.4 g: four movements under one posting
+    const uses = await db()("stock_movements").where({ batch_id: planned.body.id });
+    expect(uses).toHaveLength(4);
+    expect(new Set(uses.map((u: { posting_id: string }) => u.posting_id)).size).toBe(1);
+    expect((await produce(planned.body.id, body)).status).toBe(409);
+    expect(await ledgerMismatches(co.company.id)).toEqual([]);
+  });
+
+  it("puts a batch over the statutory maximum on hold; only a manager releases it, with a reason on record", async () => {
+    const cure = await cureItem();
+    await receive(cure.sku, "100", "g", K(0), lotDate(30));
+    const code = await recipe([{ item: cure.sku, rate: "2.5", unit: "g/kg" }]);
+    const planned = await plan({ kitchen: K(0), recipe: code, plannedFor: day(1), meatBlock: { quantity: "10", unit: "kg" } });
+    // 30 g weighed instead of 25: 187.5 ppm > 156.25 (9 CFR 424.21(c) comminuted)
+    const res = await produce(planned.body.id, { actualMeatBlock: { quantity: "10", unit: "kg" }, lines: [{ position: 1, quantity: "30" }] });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.status).toBe("on_hold");
+    expect(res.body.production.cure.nitritePpm).toBe("187.5000");
+    expect(res.body.production.hold.reason).toMatch(/187\.5000 ppm is over the 156\.25 ppm maximum.*HACCP plan's corrective action/);
+    const byLead = await call(releaseHoldRoute, { path: `/api/batches/${planned.body.id}/release-hold`, params: { id: planned.body.id }, body: { reason: "Reworked" }, cookie: cookie.kitchen_lead });
+    expect(byLead.status).toBe(403);
+    const noReason = await call(releaseHoldRoute, { path: `/api/batches/${planned.body.id}/release-hold`, params: { id: planned.body.id }, body: { reason: " " }, cookie: cookie.manager });
+    expect(noReason.status).toBe(422);
+    const released = await call(releaseHoldRoute, {
+      path: `/api/batches/${planned.body.id}/release-hold`, params: { id: planned.body.id }, body: { reason: "Diluted into a 12 kg rework batch per HACCP CA-3" }, cookie: cookie.manager,
+    });
+    expect(released.status, JSON.stringify(released.body)).toBe(200);
+    expect(released.body.status).toBe("produced");
+    expect(released.body.production.hold).toMatchObject({ releaseReason: "Diluted into a 12 kg rework batch per HACCP CA-3", releasedBy: { id: co.users.manager.id } });
+    const audit = await db()("audit_events").where({ subject_id: planned.body.id });
+    expect(audit).toMatchObject([{ action: "batch.hold_released", actor_id: co.users.manager.id, reason: "Diluted into a 12 kg rework batch per HACCP CA-3" }]);
+    await expect(db()("audit_events").where({ subject_id: planned.body.id }).update({ reason: "x" })).rejects.toThrow(/append-only/);
+  });
+
+  it("refuses to use an expired lot by name in production (LOT_EXPIRED), and a line that does not exist", async () => {
+    const cure = await cureItem();
+    await receive(cure.sku, "100", "g", K(0), lotDate(30));
+    const code = await recipe([{ item: cure.sku, rate: "2", unit: "g/kg" }]);
+    const planned = await plan({ kitchen: K(0), recipe: code, plannedFor: day(1), meatBlock: { quantity: "10", unit: "kg" } });
+    const [expired] = await db()("lots").insert({ company_id: co.company.id, item_id: cure.id, code: `OLD${tag()}`, received_on: day(-90), date: day(-1), date_kind: "use_by", unit_cost: "0.01" }).returning("id");
+    await db()("stock_balances").insert({ company_id: co.company.id, kitchen_id: co.kitchens[0]!.id, item_id: cure.id, lot_id: expired.id, on_hand: "0" });
+    const res = await produce(planned.body.id, { actualMeatBlock: { quantity: "10", unit: "kg" }, lines: [{ position: 1, lots: [{ lot: expired.id, quantity: "20" }] }] });
+    expect(res.status).toBe(409);
+    expect(res.body.error.code).toBe("LOT_EXPIRED");
+    expect((await produce(planned.body.id, { actualMeatBlock: { quantity: "10", unit: "kg" }, lines: [{ position: 9, quantity: "1" }] })).body.error.details.fields).toHaveProperty(["lines.0.position"]);
+    expect(await db()("stock_movements").where({ batch_id: planned.body.id })).toHaveLength(0);
+    expect((await getBatch(planned.body.id)).body.status).toBe("planned");
+  });
+
+  it("traces a lot forward to its batches and a batch back to its lots, as JSON and CSV", async () => {
+    const cure = await cureItem();
+    const lot = await receive(cure.sku, "100", "g", K(0), { ...lotDate(30), code: `TRACE-${tag()}` });
+    const code = await recipe([{ item: cure.sku, rate: "2", unit: "g/kg" }]);
+    const made: string[] = [];
+    for (const kg of ["10", "5"]) {
+      const p = await plan({ kitchen: K(0), recipe: code, plannedFor: day(1), meatBlock: { quantity: kg, unit: "kg" } });
+      const r = await produce(p.body.id, { actualMeatBlock: { quantity: kg, unit: "kg" } });
+      expect(r.status, JSON.stringify(r.body)).toBe(200);
+      made.push(r.body.production.batchCode);
+    }
+    const forward = await call(traceLotRoute, { path: `/api/trace/lots/${lot}`, params: { id: lot }, cookie: cookie.manager });
+    expect(forward.status, JSON.stringify(forward.body)).toBe(200);
+    expect(forward.body.batches.map((b: { batchCode: string; quantity: string }) => [b.batchCode, b.quantity])).toEqual([[made[0], "20"], [made[1], "10"]]);
+    expect(forward.body.onHand).toEqual([{ kitchen: K(0), quantity: "70" }]);
+    expect(forward.body.note).toMatch(/Shipments to customers are not recorded/);
+    const batchId = forward.body.batches[0].batchId;
+    const back = await call(traceBatchRoute, { path: `/api/trace/batches/${batchId}`, params: { id: batchId }, cookie: cookie.accountant });
+    expect(back.body.lots).toEqual([expect.objectContaining({ lotId: lot, quantity: "20", supplier: null })]);
+    const csv = await traceLotRoute(buildRequest({ path: `/api/trace/lots/${lot}?format=csv`, cookie: cookie.manager }), { params: Promise.resolve({ id: lot }) });
+    expect(csv.headers.get("content-type")).toMatch(/text\/csv/);
+    // papaparse (a general-purpose CSV library) reads back what we wrote
+    const parsed = Papa.parse<Record<string, string>>(await csv.text(), { header: true, skipEmptyLines: true });
+    expect(parsed.data.map((r) => [r.batch_code, r.quantity_used])).toEqual([[made[0], "20"], [made[1], "10"]]);
+    expect((await call(traceLotRoute, { path: `/api/trace/lots/${lot}`, params: { id: lot }, cookie: cookie.other })).status).toBe(404);
+    expect((await call(traceLotRoute, { path: `/api/trace/lots/${lot}`, params: { id: lot }, cookie: cookie.buyer })).status).toBe(403);
   });
 });

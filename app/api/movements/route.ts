@@ -1,3 +1,4 @@
+import { csvResponse } from "@/lib/csv";
 import { postMovement } from "@/lib/data/ledger";
 import { listMovements, movementsCsv } from "@/lib/data/movements";
 import { fieldErrors, validation } from "@/lib/http/errors";
@@ -10,13 +11,7 @@ export const GET = route({}, async ({ user, req }) => {
   if (!parsed.success) throw validation(fieldErrors(parsed.error));
   const page = await listMovements(user, parsed.data);
   if (parsed.data.format === "csv") {
-    return new Response(movementsCsv(page.movements), {
-      headers: {
-        "content-type": "text/csv; charset=utf-8",
-        "content-disposition": `attachment; filename="movements.csv"`,
-        ...(page.nextCursor ? { "x-next-cursor": page.nextCursor } : {}),
-      },
-    });
+    return csvResponse(movementsCsv(page.movements), "movements.csv", page.nextCursor ? { "x-next-cursor": page.nextCursor } : {});
   }
   return page;
 });
