@@ -18,12 +18,14 @@ import { assertCan } from "../auth/assert";
 import type { CurrentUser } from "../auth/current-user";
 import { casingNeed, CasingInputError } from "../casing/calculate";
 import { CURE_CAUTION, type CureCalculation } from "../cure";
+import { houseChecks, type HouseCheck } from "../cure/house";
 import { AppError, conflict, notFound, validation } from "../http/errors";
 import { billOfMaterials, BomLineError, checkCureAmounts, roundCure } from "../recipes/bom";
 import { convert, Dec, dec, plain, toStockUnits, toStored, UnitError, ZERO } from "../units";
 import type { BatchCreateInput, BatchProduceInput } from "../validation/batches";
 import { casingBasisForItem } from "./casing-calculation";
 import { getCureSettings } from "./companies";
+import { loadHouseLimits } from "./house-limits";
 import { loadItemForLedger } from "./items-for-ledger";
 import { inTransaction, postInTransaction } from "./ledger";
 import { loadVersionSpec } from "./recipes";
@@ -67,6 +69,8 @@ export interface Batch {
   caution: string | null;
   createdAt: string;
   createdBy: { id: string; name: string } | null;
+  houseChecks: HouseCheck[];
+  override: { reason: string; by: { id: string; name: string } | null } | null;
   /** what was made: null until the batch is produced */
   production: Production | null;
 }
@@ -78,6 +82,7 @@ interface BatchRow {
   cure_check: CureCalculation | null; note: string; batch_code: string | null; created_by: string | null; created_at: Date;
   actual_meat_block_g: string | null; actual_cure_check: CureCalculation | null; hold_reason: string | null; release_reason: string | null;
   released_by: string | null; released_at: Date | null; produced_by: string | null; produced_at: Date | null; production_posting_id: string | null;
+  house_checks: HouseCheck[] | null; override_reason: string | null; override_by: string | null;
 }
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
@@ -161,6 +166,18 @@ export async function createBatch(actor: CurrentUser, input: BatchCreateInput): 
     });
   }
 
+  // the company's own, stricter limits: a manager may plan past them, with a reason
+  const house = rounded ? houseChecks(await loadHouseLimits(k, actor.companyId), rounded.check) : [];
+  const missed = house.filter((h) => !h.within);
+  if (missed.length && !input.overrideReason) {
+    throw new AppError(422, "VALIDATION", "The cure misses a house limit: a manager may plan it with a reason.", {
+      fields: { overrideReason: [missed.map((h) => `${h.substance} ${h.ppm} ppm is ${h.kind === "max" ? "over" : "under"} the house ${h.kind === "max" ? "maximum" : "minimum"} of ${h.limitPpm} ppm`).join("; ") + "."] },
+      houseChecks: house,
+    });
+  }
+  if (input.overrideReason && !missed.length) throw validation({ overrideReason: ["No house limit is missed: there is nothing to override."] });
+  if (missed.length) assertCan(actor, "limits.override", { kitchenId: kitchen.id });
+
   // the casing: the batch's choice, or the recipe's, inside the recipe's calibre range
   const casingRef = input.casing ?? version.casing_item_id ?? undefined;
   let casingLine: { item: ItemRow; quantity: Dec; metres: Dec; source: string } | null = null;
@@ -194,8 +211,15 @@ export async function createBatch(actor: CurrentUser, input: BatchCreateInput): 
         casing_item_id: casingLine?.item.id ?? null, casing_metres: casingLine ? toStored(casingLine.metres) : null, casing_source: casingLine?.source ?? null,
         status: "planned", cure_check: rounded ? JSON.stringify(rounded.check) : null,
         note: input.note, created_by: actor.id,
+        house_checks: JSON.stringify(house), override_reason: missed.length ? input.overrideReason : null, override_by: missed.length ? actor.id : null,
       })
       .returning<{ id: string }[]>("id");
+    if (missed.length) {
+      await trx("audit_events").insert({
+        company_id: actor.companyId, actor_id: actor.id, action: "batch.house_limit_overridden", subject_type: "batch", subject_id: b!.id,
+        reason: input.overrideReason!, details: JSON.stringify({ missed }),
+      });
+    }
     const lines = bom.lines.map((l) => {
       const cureGrams = rounded?.grams.get(l.position);
       return {
@@ -260,7 +284,7 @@ async function describeBatches(k: Knex | Knex.Transaction, actor: CurrentUser, r
         .select("m.batch_id", "m.item_id", "m.lot_id", "l.code", k.raw("(-sum(m.delta))::text as quantity"))
     : [];
   const people2: { id: string; name: string }[] = await k("app_users")
-    .whereIn("id", rows.flatMap((r) => [r.produced_by, r.released_by]).filter((x): x is string => !!x)).select("id", "name");
+    .whereIn("id", rows.flatMap((r) => [r.produced_by, r.released_by, r.override_by]).filter((x): x is string => !!x)).select("id", "name");
   const itemIds = [...new Set(lines.map((l) => l.item_id))];
   const activeKitchens = kitchens.filter((kk) => !kk.archived_at).map((kk) => kk.id);
   const today = await companyToday(k, actor.companyId);
@@ -346,6 +370,8 @@ async function describeBatches(k: Knex | Knex.Transaction, actor: CurrentUser, r
       caution: b.cure_check ? CURE_CAUTION : null,
       createdAt: b.created_at.toISOString(),
       createdBy: b.created_by ? { id: b.created_by, name: creator?.name ?? "Former user" } : null,
+      houseChecks: b.house_checks ?? [],
+      override: b.override_reason ? { reason: b.override_reason, by: b.override_by ? { id: b.override_by, name: people2.find((p) => p.id === b.override_by)?.name ?? "Former user" } : null } : null,
       production: b.production_posting_id ? productionOf(b, batchLines, used.filter((u) => u.batch_id === b.id), people2) : null,
     };
   });
@@ -439,17 +465,23 @@ async function reserveIn(trx: Knex.Transaction, actor: CurrentUser, batch: Batch
     if (need.gt(0)) short.push({ position: line.position, sku: line.sku, needed: plain(wanted), available: plain(wanted.minus(need)), unit: line.stock_unit });
   }
   if (short.length) return short;
-  for (const p of plan) {
-    const updated = await trx("stock_balances")
-      .where({ kitchen_id: batch.kitchen_id, lot_id: p.lotId })
-      .whereRaw("on_hand - reserved >= ?::numeric", [toStored(p.take)])
-      .update({ reserved: trx.raw("reserved + ?::numeric", [toStored(p.take)]), updated_at: trx.fn.now() });
-    if (updated !== 1) throw conflict("Stock changed while reserving; try again."); // cannot happen: the rows are locked
+  if (plan.length) {
+    // one statement for the balances (summed per lot: two lines may draw the same lot), one for the reservations
+    const perLot = new Map<string, Dec>();
+    for (const p of plan) perLot.set(p.lotId, (perLot.get(p.lotId) ?? ZERO).plus(p.take));
+    const values = [...perLot].map(([lotId, take]) => trx.raw("(?::uuid, ?::numeric)", [lotId, toStored(take)]));
+    const updated = await trx.raw<{ rowCount: number }>(
+      `update stock_balances b set reserved = b.reserved + v.take, updated_at = now()
+         from (values ${values.map(() => "?").join(", ")}) as v(lot_id, take)
+        where b.kitchen_id = ? and b.lot_id = v.lot_id and b.on_hand - b.reserved >= v.take`,
+      [...values, batch.kitchen_id],
+    );
+    if (updated.rowCount !== perLot.size) throw conflict("Stock changed while reserving; try again."); // cannot happen: the rows are locked
     await trx.raw(
       `insert into reservations (company_id, batch_id, batch_line_id, kitchen_id, item_id, lot_id, quantity, created_by)
-       values (?, ?, ?, ?, ?, ?, ?::numeric, ?)
+       values ${plan.map(() => "(?, ?, ?, ?, ?, ?, ?::numeric, ?)").join(", ")}
        on conflict (batch_line_id, lot_id) do update set quantity = reservations.quantity + excluded.quantity`,
-      [actor.companyId, batch.id, p.lineId, batch.kitchen_id, p.itemId, p.lotId, toStored(p.take), actor.id],
+      plan.flatMap((p) => [actor.companyId, batch.id, p.lineId, batch.kitchen_id, p.itemId, p.lotId, toStored(p.take), actor.id]),
     );
   }
   await trx("batches").where({ id: batch.id }).update({ status: "reserved", updated_at: trx.fn.now() });

@@ -36,6 +36,7 @@ import {
   batchCreateInput, batchListQuery, batchListResponse, batchProduceInput, batchReserveAllInput, batchResponse, batchTraceResponse, holdReleaseInput, lotTraceResponse,
   reserveAllResponse, traceQuery,
 } from "../validation/batches";
+import { houseLimitsInput, houseLimitsResponse } from "../validation/house-limits";
 import { itemCreateInput, itemListQuery, itemPatchInput } from "../validation/items";
 import { recipeCreateInput, recipeGetQuery, recipeListQuery, recipeListResponse, recipeResponse, recipeVersionInput } from "../validation/recipes";
 import {
@@ -621,6 +622,21 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
     body: requestBody("BatchReserveAllInput", batchReserveAllInput),
     success: { status: 200, description: "Per batch: reserved, or what is short.", schema: reserveAllResponse },
     errors: { 403: [["FORBIDDEN", "Not your kitchen."]], 404: [["NOT_FOUND", "No such kitchen in your company."]] },
+  },
+  {
+    method: "get", path: "/api/house-limits", operationId: "listHouseLimits", tag: "Planning", auth: true,
+    summary: "House limits",
+    description: "The company's own cure limits, stricter than the regulation's, per product class and substance. Plans are checked against them; a manager may plan past one with a reason.",
+    success: { status: 200, description: "The house limits.", schema: houseLimitsResponse },
+    errors: { 403: [["FORBIDDEN", "Your role does not read plans."]] },
+  },
+  {
+    method: "put", path: "/api/house-limits", operationId: "setHouseLimits", tag: "Planning", auth: true,
+    summary: "Set the house limits",
+    description: "Replaces every house limit of the company (admins). Statutory limits are not set here: they come with the product and cannot be overridden.",
+    body: requestBody("HouseLimitsInput", houseLimitsInput),
+    success: { status: 200, description: "The house limits now in force.", schema: houseLimitsResponse },
+    errors: { 403: [["FORBIDDEN", "Admins only."]], 422: [["VALIDATION", "A limit is wrong or set twice: details.fields names it as limits.N.field."]] },
   },
   {
     method: "post", path: "/api/calculations/casing", operationId: "calculateCasing", tag: "Planning", auth: true,

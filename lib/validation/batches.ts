@@ -1,6 +1,7 @@
 // Batch plan requests. No server imports: the planner's forms share these.
 import { z } from "zod";
 import { decimalString, uuid } from "./common";
+import { PRODUCT_CLASSES } from "../cure/limits";
 import { cureCalculationResponse } from "./cure";
 
 const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Use a date as yyyy-mm-dd.");
@@ -24,6 +25,8 @@ export const batchCreateInput = z
     /** a casing item other than the recipe's (within its calibre range) */
     casing: z.string().trim().min(1).max(80).optional(),
     note: z.string().trim().max(1000).default(""),
+    /** a manager planning past a house limit (never a statutory one) says why */
+    overrideReason: z.string().trim().min(1, "Say why the house limit is overridden.").max(1000).optional(),
   })
   .superRefine((v, ctx) => {
     if (!v.meatBlock && !v.links) ctx.addIssue({ code: "custom", path: ["meatBlock"], message: "Give the meat block weight, or a link count and link weight." });
@@ -115,6 +118,11 @@ export const batchResponse = z
     caution: z.string().nullable(),
     createdAt: z.string(),
     createdBy: z.object({ id: z.string(), name: z.string() }).nullable(),
+    houseChecks: z
+      .array(z.object({ productClass: z.enum(PRODUCT_CLASSES), substance: z.enum(["nitrite", "nitrate"]), kind: z.enum(["max", "min"]), limitPpm: z.string(), note: z.string(), ppm: z.string(), within: z.boolean() }))
+      .meta({ description: "The company's own limits for this product class, checked on the planned cure." }),
+    override: z.object({ reason: z.string(), by: z.object({ id: z.string(), name: z.string() }).nullable() }).nullable()
+      .meta({ description: "A manager's reason for planning past a house limit." }),
     production: z
       .object({
         batchCode: z.string().meta({ description: "RECIPE-YYMMDD-N, given at production.", example: "YARD-SMK-261207-1" }),

@@ -21,6 +21,7 @@ import { POST as reserveRoute } from "../../app/api/batches/[id]/reserve/route";
 import { GET as batchGet } from "../../app/api/batches/[id]/route";
 import { POST as reserveAllRoute } from "../../app/api/batches/reserve-all/route";
 import { GET as batchesList, POST as batchCreate } from "../../app/api/batches/route";
+import { PUT as houseLimitsRoute } from "../../app/api/house-limits/route";
 import { POST as itemCreate } from "../../app/api/items/route";
 import { POST as moveRoute } from "../../app/api/movements/route";
 import { POST as recipeCreate } from "../../app/api/recipes/route";
@@ -420,5 +421,34 @@ describe("production, holds and traceability", () => {
     expect(parsed.data.map((r) => [r.batch_code, r.quantity_used])).toEqual([[made[0], "20"], [made[1], "10"]]);
     expect((await call(traceLotRoute, { path: `/api/trace/lots/${lot}`, params: { id: lot }, cookie: cookie.other })).status).toBe(404);
     expect((await call(traceLotRoute, { path: `/api/trace/lots/${lot}`, params: { id: lot }, cookie: cookie.buyer })).status).toBe(403);
+  });
+});
+
+describe("house limits", () => {
+  it("a plan over a house maximum needs a manager's reason, which is audited; a statutory limit never can be overridden", async () => {
+    const set = await call(houseLimitsRoute, { method: "PUT", path: "/api/house-limits", cookie: cookie.admin, body: { limits: [{ productClass: "comminuted", substance: "nitrite", kind: "max", limitPpm: "150", note: "Our own ceiling" }] } });
+    expect(set.status, JSON.stringify(set.body)).toBe(200);
+    expect((await call(houseLimitsRoute, { method: "PUT", path: "/api/house-limits", cookie: cookie.manager, body: { limits: [] } })).status).toBe(403);
+    try {
+      const cure = await cureItem();
+      const code = await recipe([{ item: cure.sku, rate: "2.5", unit: "g/kg" }]);
+      const body = { kitchen: K(0), recipe: code, plannedFor: day(2), meatBlock: { quantity: "10", unit: "kg" } };
+      // 156.25 ppm: within the statutory 156.25, over the house 150
+      const refused = await plan(body);
+      expect(refused.status).toBe(422);
+      expect(refused.body.error.details.fields.overrideReason[0]).toMatch(/nitrite 156\.2500 ppm is over the house maximum of 150 ppm/);
+      expect((await plan({ ...body, overrideReason: "Trial batch agreed with the HACCP lead" })).status).toBe(403);
+      const ok = await plan({ ...body, overrideReason: "Trial batch agreed with the HACCP lead" }, "manager");
+      expect(ok.status, JSON.stringify(ok.body)).toBe(201);
+      expect(ok.body.houseChecks).toEqual([expect.objectContaining({ limitPpm: "150", ppm: "156.2500", within: false })]);
+      expect(ok.body.override).toMatchObject({ reason: "Trial batch agreed with the HACCP lead", by: { id: co.users.manager.id } });
+      expect(await db()("audit_events").where({ subject_id: ok.body.id })).toMatchObject([{ action: "batch.house_limit_overridden", actor_id: co.users.manager.id }]);
+      // a reason with nothing to override is refused
+      const low = await recipe([{ item: cure.sku, rate: "2", unit: "g/kg" }]);
+      const noNeed = await plan({ ...body, recipe: low, overrideReason: "just because" }, "manager");
+      expect(Object.keys(noNeed.body.error.details.fields)).toEqual(["overrideReason"]);
+    } finally {
+      await call(houseLimitsRoute, { method: "PUT", path: "/api/house-limits", cookie: cookie.admin, body: { limits: [] } });
+    }
   });
 });
