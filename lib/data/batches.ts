@@ -686,11 +686,11 @@ export async function produceBatch(actor: CurrentUser, id: string, input: BatchP
   return getBatch(actor, id);
 }
 
-/** RECIPE-YYMMDD-N: the recipe's code, the production day and a running number (under a company lock). */
+/** RECIPE-YYMMDD-N: the recipe's code, the day it was made (the company's today) and a running number (under a company lock). */
 async function nextBatchCode(trx: Knex.Transaction, companyId: string, batch: BatchRow): Promise<string> {
   await trx.raw("select pg_advisory_xact_lock(hashtext(?))", [`batch-code:${companyId}`]);
   const recipe: { code: string } = await trx("recipes").where({ id: batch.recipe_id }).first("code");
-  const prefix = `${recipe.code}-${batch.planned_for.slice(2).replace(/-/g, "")}-`;
+  const prefix = `${recipe.code}-${(await companyToday(trx, companyId)).slice(2).replace(/-/g, "")}-`;
   const taken: { n: string | null } = await trx("batches").where({ company_id: companyId }).whereLike("batch_code", `${prefix}%`)
     .first(trx.raw("max(substring(batch_code from ?)::int)::text as n", [`^${prefix.replace(/[-]/g, "\\-")}(\\d+)$`]));
   return `${prefix}${Number(taken?.n ?? 0) + 1}`;

@@ -125,7 +125,7 @@ export const batchResponse = z
       .meta({ description: "A manager's reason for planning past a house limit." }),
     production: z
       .object({
-        batchCode: z.string().meta({ description: "RECIPE-YYMMDD-N, given at production.", example: "YARD-SMK-261207-1" }),
+        batchCode: z.string().meta({ description: "RECIPE-YYMMDD-N (the day it was made), given at production.", example: "YARD-SMK-261207-1" }),
         producedAt: z.string(),
         producedBy: z.object({ id: z.string(), name: z.string() }).nullable(),
         actualMeatBlockG: decimal,

@@ -332,7 +332,9 @@ describe("production, holds and traceability", () => {
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     expect(res.body.status).toBe("produced");
     const p = res.body.production;
-    expect(p.batchCode).toBe(`${code}-${day(1).slice(2).replace(/-/g, "")}-1`);
+    // the recipe's code, the day it was made (the company's today, Europe/London) and a running number
+    const madeOn = new Intl.DateTimeFormat("en-CA", { timeZone: "Europe/London" }).format(new Date());
+    expect(p.batchCode).toBe(`${code}-${madeOn.slice(2).replace(/-/g, "")}-1`);
     expect(p.actualMeatBlockG).toBe("10200");
     expect(p.lines.map((l: { item: { sku: string }; planned: string; actual: string; variance: string }) => [l.item.sku, l.planned, l.actual, l.variance])).toEqual([
       [salt.sku, "180", "180", "0"],
