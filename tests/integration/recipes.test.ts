@@ -105,6 +105,36 @@ describe("a recipe and its first version", () => {
   });
 });
 
+describe("pumped products: lines per kg of pickle", () => {
+  it("2 lb of sodium nitrite in 1,000 lb of pickle at a 10 % pump is 200 ppm, within the pumped maximum", async () => {
+    // trade-facts §3 check value [calc]: 2 lb NaNO2 / 1,000 lb pickle = 2 g per kg of pickle;
+    // ppm = nitrite in the pickle x pump fraction x 1,000,000 / pickle weight (FSIS Directive 7620.3 ch. 3)
+    const nitrite = await call(itemCreate, {
+      path: "/api/items", cookie: cookie.admin,
+      body: { sku: sku("NANO2"), name: "Sodium nitrite, pure", category: "cure", unit: "g", nitriteFraction: "1", nitrateFraction: "0" },
+    });
+    expect(nitrite.status, JSON.stringify(nitrite.body)).toBe(201);
+    const res = await create(farmhouse({
+      productClass: "pumped", storage: "keep_refrigerated", casing: undefined,
+      pickle: { kgPerKgMeat: "0.12", pumpFraction: "0.1" },
+      lines: [{ item: nitrite.body.sku, rate: "2", unit: "g/kg", basis: "pickle" }, { item: items.salt, rate: "80", unit: "g/kg", basis: "pickle" }],
+    }));
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    expect(res.body.version).toMatchObject({ method: "pumped", pickle: { kgPerKgMeat: "0.12", pumpFraction: "0.1" } });
+    // 1 kg of meat makes 0.12 kg of pickle: 0.24 g of nitrite and 9.6 g of salt in it
+    expect(res.body.version.lines.map((l: { perKgMeat: { quantity: string } }) => l.perKgMeat.quantity)).toEqual(["0.24", "9.6"]);
+    expect(res.body.version.cure.nitritePpm).toBe("200.0000");
+    const max = res.body.version.cure.checks.find((c: { kind: string; substance: string; table: string }) => c.kind === "max" && c.substance === "nitrite" && c.table === "us");
+    expect(max).toMatchObject({ limitPpm: "200", within: true });
+  });
+
+  it("puts the cure of a pumped product into the pickle, not on the meat", async () => {
+    const res = await create(farmhouse({ productClass: "pumped", casing: undefined, pickle: { kgPerKgMeat: "0.12", pumpFraction: "0.1" }, lines: [{ item: items.cure, rate: "2", unit: "g/kg" }] }));
+    expect(res.status).toBe(422);
+    expect(fieldsOf(res)).toEqual(["lines.0.basis"]);
+  });
+});
+
 describe("versions", () => {
   it("writes a change as version 2 and leaves version 1 as it was", async () => {
     const body = farmhouse();
