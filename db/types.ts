@@ -1,4 +1,6 @@
 // Row types as stored (snake_case). lib/data maps them to camelCase objects for callers.
+import type { Salt } from "../lib/cure/limits";
+
 export const ROLES = ["admin", "manager", "buyer", "kitchen_lead", "accountant"] as const;
 export type Role = (typeof ROLES)[number];
 
@@ -121,6 +123,9 @@ export interface ItemRow {
   storage: (typeof CASING_STORAGE)[number] | null;
   nitrite_fraction: string | null;
   nitrate_fraction: string | null;
+  /** cures: which salt the label names (sodium unless it says potassium); null for other items */
+  nitrite_salt: Salt | null;
+  nitrate_salt: Salt | null;
   form: string | null;
   density_g_per_ml: string | null;
   archived_at: Date | null;

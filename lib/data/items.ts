@@ -8,6 +8,7 @@ import { db } from "../../db/client";
 import type { ItemCategory, ItemPackRow, ItemRow, StockUnit } from "../../db/types";
 import { assertCan } from "../auth/assert";
 import type { CurrentUser } from "../auth/current-user";
+import type { Salt } from "../cure/limits";
 import { conflict, notFound, validation } from "../http/errors";
 import { plain, type ItemUnits } from "../units";
 import {
@@ -20,6 +21,9 @@ export interface CureAttributes {
   /** fraction of the cure's mass, from the label: 6.25 % is "0.0625" */
   nitriteFraction: string;
   nitrateFraction: string;
+  /** the salt of each, from the label: potassium nitrite counts differently (lib/cure) */
+  nitriteSalt: Salt;
+  nitrateSalt: Salt;
 }
 
 export interface ItemPack {
@@ -98,7 +102,13 @@ function toItem(row: ItemRow, packRows: readonly ItemPackRow[]): Item {
         : null,
     cure:
       row.category === "cure" && row.nitrite_fraction !== null && row.nitrate_fraction !== null
-        ? { nitriteFraction: plain(row.nitrite_fraction), nitrateFraction: plain(row.nitrate_fraction) }
+        ? {
+            nitriteFraction: plain(row.nitrite_fraction),
+            nitrateFraction: plain(row.nitrate_fraction),
+            // the items_cure_salts CHECK keeps both set on a cure
+            nitriteSalt: row.nitrite_salt ?? "sodium",
+            nitrateSalt: row.nitrate_salt ?? "sodium",
+          }
         : null,
     form: row.form,
     densityGPerMl: p(row.density_g_per_ml),
@@ -151,6 +161,8 @@ function columns(r: ResolvedItem): Partial<ItemRow> {
     storage: r.casing?.storage ?? null,
     nitrite_fraction: r.cure?.nitriteFraction ?? null,
     nitrate_fraction: r.cure?.nitrateFraction ?? null,
+    nitrite_salt: r.cure?.nitriteSalt ?? null,
+    nitrate_salt: r.cure?.nitrateSalt ?? null,
     form: r.form,
     density_g_per_ml: r.densityGPerMl,
   };

@@ -85,9 +85,11 @@ interface VersionRow {
 
 const trim = (v: string | null) => (v === null ? null : plain(dec(v)));
 
+/** An item row as the bill of materials needs it; a cure brings the salts its label names. */
 export const bomItemOf = (row: ItemRow): BomItem => ({
   id: row.id, sku: row.sku, name: row.name, category: row.category, stockUnit: row.stock_unit,
   densityGPerMl: row.density_g_per_ml, nitriteFraction: row.nitrite_fraction, nitrateFraction: row.nitrate_fraction,
+  nitriteSalt: row.nitrite_salt ?? undefined, nitrateSalt: row.nitrate_salt ?? undefined,
 });
 
 /** Resolves the lines' items and checks each against the catalogue; 422 names the line. */

@@ -119,8 +119,10 @@ const ITEM_NOTES: FieldNotes = {
   putUpMetres: DECIMAL("Casings: metres in one put-up. Default 91.44 for a hank (100 yd); required for the other put-ups.", "91.44"),
   capacityKgPerPutUp: DECIMAL("Casings: kg of filling one put-up holds. Default from the trade's calibre table (the lower bound of the band chosen by the lower calibre: a 32/35 mm hog hank holds 45 kg); outside the table a natural casing needs it entered (422).", "45"),
   storage: { description: "Casings: salted, brine or dry. Default salted for natural casings, dry for manufactured." },
-  nitriteFraction: DECIMAL("Cures, required: sodium nitrite as a fraction of the cure's mass, from the label (6.25 % is 0.0625). Never assumed.", "0.0625"),
-  nitrateFraction: DECIMAL("Cures, required: sodium nitrate as a fraction, from the label (0 when there is none). Nitrite plus nitrate is more than 0 and at most 1.", "0"),
+  nitriteFraction: DECIMAL("Cures, required: nitrite (the salt in nitriteSalt) as a fraction of the cure's mass, from the label (6.25 % is 0.0625). Never assumed.", "0.0625"),
+  nitrateFraction: DECIMAL("Cures, required: nitrate (the salt in nitrateSalt) as a fraction, from the label (0 when there is none). Nitrite plus nitrate is more than 0 and at most 1.", "0"),
+  nitriteSalt: { description: "Cures: sodium (default) or potassium nitrite, as printed on the label. Potassium nitrite is checked against the regulation's potassium figures (1.2335 x sodium). Only for cures (422 otherwise).", example: "sodium" },
+  nitrateSalt: { description: "Cures: sodium (default) or potassium nitrate, as printed on the label. Only for cures (422 otherwise).", example: "sodium" },
   form: { description: "Spices and ingredients: ground, whole, flakes, liquid, culture..." },
   densityGPerMl: DECIMAL("Spices and ingredients: grams per millilitre, for recipes given by volume. Not for cures (by mass only).", "1.03"),
 };

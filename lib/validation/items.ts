@@ -5,6 +5,7 @@
 import { z } from "zod";
 import { CASING_KINDS, CASING_STORAGE, ITEM_CATEGORIES, PUT_UPS, STOCK_UNITS, type ItemCategory, type StockUnit } from "../../db/types";
 import { defaultCapacityKg } from "../casing/capacity";
+import { SALTS, type Salt } from "../cure/limits";
 import { defaultStorage, HANK_METRES, isNaturalCasing, PUT_UP_KINDS, PUT_UP_LABELS, putUpFits, type CasingKind, type CasingStorage, type PutUpKind } from "../casing/put-ups";
 import {
   assertItemUnits, dec, findGlobalUnit, isDecimalString, isUnitError, isUnitFor, normaliseUnitName, plain, toStockUnits, toStoredQuantity,
@@ -38,6 +39,8 @@ const flag = z.boolean({ error: "Send true or false." });
 const calibre = positive(decimalString({ scale: 2 })).refine((s) => dec(s).lt(1000), { error: "A calibre is under 1000 mm." });
 /** a fraction of the cure's mass from its label, NUMERIC(10,8): 6.25 % is "0.0625" */
 const fraction = decimalString({ scale: 8 }).refine((s) => dec(s).lte(1), { error: "A fraction from 0 to 1: 6.25 % is 0.0625." });
+/** which salt the label names: potassium nitrite converts differently from sodium (trade-facts §2) */
+const salt = z.enum(SALTS, { error: "Choose the salt as printed on the label: sodium or potassium." });
 /** NUMERIC(30,12) */
 const positive12 = positive(decimalString({ scale: 12 }));
 
@@ -67,6 +70,8 @@ const attributeFields = {
   // cures
   nitriteFraction: fraction,
   nitrateFraction: fraction,
+  nitriteSalt: salt,
+  nitrateSalt: salt,
   // spices and other ingredients
   form,
   densityGPerMl: positive12,
@@ -89,6 +94,8 @@ const draftShape = {
   storage: attributeFields.storage.optional(),
   nitriteFraction: attributeFields.nitriteFraction.optional(),
   nitrateFraction: attributeFields.nitrateFraction.optional(),
+  nitriteSalt: attributeFields.nitriteSalt.optional(),
+  nitrateSalt: attributeFields.nitrateSalt.optional(),
   form: attributeFields.form.optional(),
   densityGPerMl: attributeFields.densityGPerMl.optional(),
 };
@@ -114,8 +121,8 @@ export const itemCreateInput = z.object(draftShape).superRefine((draft, ctx) => 
 });
 
 /**
- * PATCH /api/items/{id}: any field; null clears an optional attribute (a cleared put-up length
- * or capacity takes its default again). `packs` replaces every pack. `archived` hides the item.
+ * PATCH /api/items/{id}: any field; null clears an optional attribute (a cleared put-up length,
+ * capacity or cure salt takes its default again). `packs` replaces every pack. `archived` hides the item.
  * The merged item is checked as a whole (mergeItemPatch, then resolveItem).
  */
 export const itemPatchInput = z
@@ -136,6 +143,8 @@ export const itemPatchInput = z
     storage: attributeFields.storage.nullable(),
     nitriteFraction: attributeFields.nitriteFraction.nullable(),
     nitrateFraction: attributeFields.nitrateFraction.nullable(),
+    nitriteSalt: attributeFields.nitriteSalt.nullable(),
+    nitrateSalt: attributeFields.nitrateSalt.nullable(),
     form: attributeFields.form.nullable(),
     densityGPerMl: attributeFields.densityGPerMl.nullable(),
     archived: flag,
@@ -154,7 +163,7 @@ export const itemListQuery = z.object({
 // The whole item: rules per category, defaults, packs in stock units
 
 const CASING_FIELDS = ["casingKind", "calibreMinMm", "calibreMaxMm", "putUp", "putUpMetres", "capacityKgPerPutUp", "storage"] as const;
-const CURE_FIELDS = ["nitriteFraction", "nitrateFraction"] as const;
+const CURE_FIELDS = ["nitriteFraction", "nitrateFraction", "nitriteSalt", "nitrateSalt"] as const;
 const INGREDIENT_FIELDS = ["form", "densityGPerMl"] as const;
 type AttributeField = (typeof CASING_FIELDS)[number] | (typeof CURE_FIELDS)[number] | (typeof INGREDIENT_FIELDS)[number];
 
@@ -177,6 +186,8 @@ const ONLY_FOR: Record<AttributeField, string> = {
   storage: "Only for casings.",
   nitriteFraction: "Only for cures.",
   nitrateFraction: "Only for cures.",
+  nitriteSalt: "Only for cures.",
+  nitrateSalt: "Only for cures.",
   form: "Only for spices and ingredients.",
   densityGPerMl: "Only for spices and ingredients (cure is planned and recorded by mass only).",
 };
@@ -205,7 +216,8 @@ export interface ResolvedItem {
   trackLots: boolean;
   trackDates: boolean;
   casing: ResolvedCasing | null;
-  cure: { nitriteFraction: string; nitrateFraction: string } | null;
+  /** the salts default to sodium, the common cure (trade-facts §1), unless the label says potassium */
+  cure: { nitriteFraction: string; nitrateFraction: string; nitriteSalt: Salt; nitrateSalt: Salt } | null;
   form: string | null;
   densityGPerMl: string | null;
   packs: ResolvedPack[];
@@ -253,7 +265,12 @@ export function resolveItem(d: ItemDraft): ResolveResult {
       const sum = dec(d.nitriteFraction).plus(d.nitrateFraction);
       if (sum.isZero()) fail("nitriteFraction", "A cure carries nitrite or nitrate: both cannot be 0.");
       else if (sum.gt(1)) fail("nitrateFraction", "Nitrite and nitrate together cannot be more than the whole cure (1).");
-      else cure = { nitriteFraction: plain(d.nitriteFraction), nitrateFraction: plain(d.nitrateFraction) };
+      else {
+        cure = {
+          nitriteFraction: plain(d.nitriteFraction), nitrateFraction: plain(d.nitrateFraction),
+          nitriteSalt: d.nitriteSalt ?? "sodium", nitrateSalt: d.nitrateSalt ?? "sodium",
+        };
+      }
     }
   } else {
     form = d.form ? d.form : null;

@@ -5,6 +5,7 @@
 // component for the document without extending zod, so nothing here changes other schemas.
 import { z } from "zod";
 import { CASING_KINDS, CASING_STORAGE, DATE_KINDS, ITEM_CATEGORIES, MOVEMENT_KINDS, PUT_UPS, ROLES, STOCK_UNITS } from "../../db/types";
+import { SALTS } from "../cure/limits";
 
 const id = z.uuid();
 const timestamp = z.iso.datetime({ offset: true }).meta({ description: "ISO 8601 timestamp in UTC, e.g. 2026-12-02T09:30:00.000Z." });
@@ -188,8 +189,10 @@ export const itemResponse = z
       .meta({ description: "Casings only." }),
     cure: z
       .object({
-        nitriteFraction: decimal("Sodium nitrite as a fraction of the cure's mass, from the label.", "0.0625"),
-        nitrateFraction: decimal("Sodium nitrate as a fraction of the cure's mass, from the label.", "0"),
+        nitriteFraction: decimal("Nitrite (the salt in nitriteSalt) as a fraction of the cure's mass, from the label.", "0.0625"),
+        nitrateFraction: decimal("Nitrate (the salt in nitrateSalt) as a fraction of the cure's mass, from the label.", "0"),
+        nitriteSalt: z.enum(SALTS).meta({ description: "sodium or potassium nitrite, as printed on the label." }),
+        nitrateSalt: z.enum(SALTS).meta({ description: "sodium or potassium nitrate, as printed on the label." }),
       })
       .nullable()
       .meta({ description: "Cures only: marks a curing salt (toxic in overdose; keep it labelled and apart from salt and spices)." }),

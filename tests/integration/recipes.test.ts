@@ -105,6 +105,35 @@ describe("a recipe and its first version", () => {
   });
 });
 
+describe("a potassium nitrite cure", () => {
+  it("reads 2.368 g/kg of a 6.25 % potassium nitrite cure as 148 ppm potassium nitrite, within the comminuted maximum and at the keep-refrigerated minimum", async () => {
+    // The cure item says its salt (trade-facts §2: "a cure item records which salt it carries"), and
+    // the recipe's check counts it as potassium nitrite (lib/cure/calculate.ts, limits.ts):
+    // - ppm = cure x nitrite fraction x 1,000,000 / meat block (FSIS Directive 7620.3 ch. 3, trade-facts §3)
+    //   = 2.368 g x 0.0625 x 1,000,000 / 1000 g = 148 ppm potassium nitrite [calc];
+    // - 9 CFR 424.21(c)'s comminuted row is "sodium or potassium nitrite: 1/4 oz to 100 lb chopped
+    //   meat" (= 156.25 ppm) at one figure, so 148 ppm potassium nitrite is compared with 156.25;
+    // - as sodium nitrite, 148 / 1.2335 = 119.98378... ppm (1.2335, trade-facts §2 [sec/calc]);
+    // - the keep-refrigerated minimum (FSIS policy, 120 ppm sodium nitrite) is 148 ppm for potassium
+    //   nitrite: 120 x 1.2335 = 148.02, truncated to 148 (trade-facts §2), so 148 meets it exactly.
+    // Read as sodium nitrite instead, the same rate would give nitriteBySalt.sodium 148 and salt "sodium".
+    const potassium = await call(itemCreate, {
+      path: "/api/items", cookie: cookie.admin,
+      body: { sku: sku("KNO2"), name: "Potassium nitrite cure 6.25 %", category: "cure", unit: "g", nitriteFraction: "0.0625", nitrateFraction: "0", nitriteSalt: "potassium" },
+    });
+    expect(potassium.status, JSON.stringify(potassium.body)).toBe(201);
+    const res = await create(farmhouse({ lines: [{ item: items.salt, rate: "18", unit: "g/kg" }, { item: potassium.body.sku, rate: "2.368", unit: "g/kg" }] }));
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    const read = await get(res.body.code);
+    for (const cure of [res.body.version.cure, read.body.version.cure]) {
+      expect(cure).toMatchObject({ nitriteBySalt: { sodium: "0.0000", potassium: "148.0000" }, nitritePpm: "119.9838", blocked: false, warnings: 0 });
+      const byId = (id: string) => cure.checks.find((c: { id: string }) => c.id === id);
+      expect(byId("us-nitrite-comminuted")).toMatchObject({ salt: "potassium", limitPpm: "156.25", ppm: "148.0000", deviationPpm: "-8.2500", within: true, severity: "block" });
+      expect(byId("us-keep-refrigerated-min")).toMatchObject({ salt: "potassium", limitPpm: "148", ppm: "148.0000", within: true });
+    }
+  });
+});
+
 describe("pumped products: lines per kg of pickle", () => {
   it("2 lb of sodium nitrite in 1,000 lb of pickle at a 10 % pump is 200 ppm, within the pumped maximum", async () => {
     // trade-facts §3 check value [calc]: 2 lb NaNO2 / 1,000 lb pickle = 2 g per kg of pickle;

@@ -86,7 +86,7 @@ describe("casings", () => {
 describe("cures", () => {
   it("keeps the label's fractions and always tracks lots and dates", () => {
     const item = resolvedOf(cure);
-    expect(item.cure).toEqual({ nitriteFraction: "0.0625", nitrateFraction: "0" });
+    expect(item.cure).toEqual({ nitriteFraction: "0.0625", nitrateFraction: "0", nitriteSalt: "sodium", nitrateSalt: "sodium" });
     expect(item).toMatchObject({ trackLots: true, trackDates: true, casing: null });
   });
 
@@ -101,7 +101,7 @@ describe("cures", () => {
     expect(Object.keys(errorsOf({ ...cure, nitriteFraction: "0", nitrateFraction: "0" }))).toEqual(["nitriteFraction"]);
     expect(Object.keys(errorsOf({ ...cure, nitriteFraction: "0.9", nitrateFraction: "0.2" }))).toEqual(["nitrateFraction"]);
     // the nitrite/nitrate cure for dry-cured products: 6.25 % nitrite + 4 % nitrate [practice, trade-facts §1]
-    expect(resolvedOf({ ...cure, nitrateFraction: "0.04" }).cure).toEqual({ nitriteFraction: "0.0625", nitrateFraction: "0.04" });
+    expect(resolvedOf({ ...cure, nitrateFraction: "0.04" }).cure).toMatchObject({ nitriteFraction: "0.0625", nitrateFraction: "0.04" });
     expect(resolvedOf({ ...cure, nitriteFraction: "1", nitrateFraction: "0" }).cure?.nitriteFraction).toBe("1");
   });
 
@@ -111,6 +111,18 @@ describe("cures", () => {
     expect(Object.keys(errorsOf({ ...cure, trackDates: false }))).toEqual(["trackDates"]);
     expect(Object.keys(errorsOf({ ...cure, densityGPerMl: "1.2" }))).toEqual(["densityGPerMl"]);
     expect(resolvedOf({ ...cure, trackLots: true, trackDates: true }).trackLots).toBe(true);
+  });
+
+  it("says which salt each carries: sodium unless the label says potassium", () => {
+    // potassium nitrite converts differently from sodium nitrite (1.2335 x, trade-facts §2), so the item records it
+    expect(resolvedOf({ ...cure, nitriteSalt: "potassium" }).cure).toEqual({ nitriteFraction: "0.0625", nitrateFraction: "0", nitriteSalt: "potassium", nitrateSalt: "sodium" });
+    expect(resolvedOf({ ...cure, nitrateFraction: "0.04", nitrateSalt: "potassium" }).cure).toMatchObject({ nitriteSalt: "sodium", nitrateSalt: "potassium" });
+    expect(itemCreateInput.parse({ ...cure, nitriteSalt: "potassium", nitrateSalt: "sodium" })).toMatchObject({ nitriteSalt: "potassium", nitrateSalt: "sodium" });
+  });
+
+  it("refuses a salt other than sodium or potassium, naming the field", () => {
+    expect(bodyErrors({ ...cure, nitriteSalt: "calcium" })).toEqual({ nitriteSalt: [expect.stringMatching(/sodium or potassium/)] });
+    expect(Object.keys(bodyErrors({ nitrateSalt: "Potassium" }, itemPatchInput))).toEqual(["nitrateSalt"]);
   });
 
   it("refuses fractions above 1, more than 8 decimals and JSON numbers, naming the field", () => {
@@ -137,6 +149,8 @@ describe("spices and ingredients", () => {
       nitriteFraction: ["Only for cures."],
     });
     expect(Object.keys(errorsOf({ ...hogHank, form: "salted" }))).toEqual(["form"]);
+    expect(errorsOf({ ...spice, nitriteSalt: "sodium", nitrateSalt: "potassium" })).toEqual({ nitriteSalt: ["Only for cures."], nitrateSalt: ["Only for cures."] });
+    expect(bodyErrors({ ...hogHank, nitriteSalt: "potassium" })).toEqual({ nitriteSalt: ["Only for cures."] });
   });
 
   it("refuses a density of 0", () => {
@@ -233,6 +247,16 @@ describe("mergeItemPatch", () => {
       nitrateFraction: [expect.any(String)],
     });
     expect(resolvedOf(mergeItemPatch(s, { category: "cure", nitriteFraction: "0.0625", nitrateFraction: "0" }))).toMatchObject({ trackLots: true, trackDates: true });
+  });
+
+  it("changes a cure's salt, takes sodium again when cleared, and drops the salts with the category", () => {
+    const storedCure: ItemDraft = { ...cure, nitriteSalt: "sodium", nitrateSalt: "sodium", trackLots: true, trackDates: true, packs: [] };
+    const potassium = mergeItemPatch(storedCure, { nitriteSalt: "potassium" });
+    expect(resolvedOf(potassium).cure).toMatchObject({ nitriteFraction: "0.0625", nitriteSalt: "potassium", nitrateSalt: "sodium" });
+    expect(resolvedOf(mergeItemPatch(potassium, { nitriteSalt: null })).cure?.nitriteSalt).toBe("sodium");
+    const spiced = mergeItemPatch(potassium, { category: "spice" });
+    expect(spiced.nitriteSalt).toBeUndefined();
+    expect(resolvedOf(spiced)).toMatchObject({ category: "spice", cure: null });
   });
 
   it("switches dates off with lots, and drops a put-up's length with the put-up", () => {

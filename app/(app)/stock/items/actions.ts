@@ -44,6 +44,9 @@ function bodyFrom(form: FormData, editing: boolean): { body: Record<string, unkn
       else if (dec(f).gt(1)) percentErrors[field] = ["At most 100 %."];
       else body[field] = f;
     }
+    // sodium or potassium, as on the label; the schema refuses anything else by name
+    body.nitriteSalt = optional("nitriteSalt");
+    body.nitrateSalt = optional("nitrateSalt");
   } else if ((ITEM_CATEGORIES as readonly string[]).includes(category)) {
     body.form = optional("form");
     body.densityGPerMl = optional("densityGPerMl");

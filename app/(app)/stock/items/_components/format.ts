@@ -1,6 +1,7 @@
 // How catalogue values read on screen. Client-safe; exact (percentages are fractions x 100, no rounding).
 import type { ItemCategory } from "@/db/types";
 import { CASING_KIND_LABELS, PUT_UP_LABELS, STORAGE_LABELS } from "@/lib/casing/put-ups";
+import type { Salt } from "@/lib/cure/limits";
 import type { Item } from "@/lib/data/items";
 import { dec, plain } from "@/lib/units";
 
@@ -15,6 +16,9 @@ export const STOCK_UNIT_LABELS = { g: "g (grams)", m: "m (metres)", ml: "ml (mil
 
 /** "0.0625" -> "6.25" (exact). */
 export const percentOf = (fraction: string) => plain(dec(fraction).times(100));
+
+/** " potassium" after a potassium salt's percentage; sodium, the common salt, goes unsaid. */
+export const saltNote = (salt: Salt) => (salt === "potassium" ? " potassium" : "");
 
 /** "6.25" -> "0.0625" (exact), or undefined when it is not a plain decimal. */
 export function fractionOf(percent: string): string | undefined {

@@ -12,6 +12,7 @@ import {
   CASING_KIND_LABELS, defaultStorage, HANK_METRES, isNaturalCasing, PUT_UP_LABELS, STORAGE_LABELS,
   type CasingKind, type PutUpKind,
 } from "@/lib/casing/put-ups";
+import type { Salt } from "@/lib/cure/limits";
 import type { Item } from "@/lib/data/items";
 import { isDecimalString } from "@/lib/units";
 import { saveItemAction, type ItemFormState } from "../actions";
@@ -36,6 +37,21 @@ interface PackRow {
   name: string;
   quantity: string;
   unit: string;
+}
+
+/** Sodium or potassium, beside the fraction it belongs to: lib/cure counts potassium nitrite differently. */
+function SaltSelect({ id, substance, defaultValue, errors }: { id: string; substance: "nitrite" | "nitrate"; defaultValue?: Salt; errors?: string[] }) {
+  return (
+    <div>
+      <label htmlFor={id} className="field-label">{substance === "nitrite" ? "Nitrite" : "Nitrate"} salt</label>
+      <select id={id} name={`${substance}Salt`} defaultValue={defaultValue ?? "sodium"} className="field-input" {...describedBy(id, errors, true)}>
+        <option value="sodium">Sodium {substance}</option>
+        <option value="potassium">Potassium {substance}</option>
+      </select>
+      <FieldHint id={id}>As printed on the label.</FieldHint>
+      <FieldError id={id} errors={errors} />
+    </div>
+  );
 }
 
 const safe = <T,>(f: () => T): T | undefined => {
@@ -95,7 +111,7 @@ export function ItemForm({ item, onSaved, onCancel }: { item?: Item; onSaved: (m
   // errors for fields this form does not show, so none is lost
   const shown = new Set(["sku", "name", "category", "unit", "trackLots", "trackDates", "packs", "archived", "_"]);
   if (category === "casing") for (const k of ["casingKind", "calibreMinMm", "calibreMaxMm", "putUp", "putUpMetres", "capacityKgPerPutUp", "storage"]) shown.add(k);
-  if (category === "cure") for (const k of ["nitriteFraction", "nitrateFraction"]) shown.add(k);
+  if (category === "cure") for (const k of ["nitriteFraction", "nitrateFraction", "nitriteSalt", "nitrateSalt"]) shown.add(k);
   if (category === "spice" || category === "ingredient") for (const k of ["form", "densityGPerMl"]) shown.add(k);
   const stray = Object.entries(e).filter(([k, v]) => v?.length && !shown.has(k) && !k.startsWith("packs."));
 
@@ -154,16 +170,18 @@ export function ItemForm({ item, onSaved, onCancel }: { item?: Item; onSaved: (m
           <CureCaution />
           <div className="grid grid-cols-2 gap-3">
             <TextField
-              name="nitritePercent" id={fid("nitriteFraction")} label="Sodium nitrite, %" required errors={e.nitriteFraction} {...decimalProps}
+              name="nitritePercent" id={fid("nitriteFraction")} label="Nitrite, %" required errors={e.nitriteFraction} {...decimalProps}
               defaultValue={item?.cure ? percentOf(item.cure.nitriteFraction) : undefined} placeholder="from the label"
             />
+            <SaltSelect id={fid("nitriteSalt")} substance="nitrite" defaultValue={item?.cure?.nitriteSalt} errors={e.nitriteSalt} />
             <TextField
-              name="nitratePercent" id={fid("nitrateFraction")} label="Sodium nitrate, %" required errors={e.nitrateFraction} {...decimalProps}
+              name="nitratePercent" id={fid("nitrateFraction")} label="Nitrate, %" required errors={e.nitrateFraction} {...decimalProps}
               defaultValue={item?.cure ? percentOf(item.cure.nitrateFraction) : undefined} placeholder="0 if none"
             />
+            <SaltSelect id={fid("nitrateSalt")} substance="nitrate" defaultValue={item?.cure?.nitrateSalt} errors={e.nitrateSalt} />
           </div>
           <p className="-mt-2 text-sm text-brine">
-            Copy both from this product&apos;s label (e.g. 6.25 % nitrite, 0 % nitrate). Nothing is assumed: cures are sold at many strengths.
+            Copy the strengths and salts from this product&apos;s label (e.g. 6.25 % sodium nitrite, 0 % nitrate). Nothing is assumed: cures are sold at many strengths.
             Cure is stocked and planned in grams, and its lots and dates are always tracked.
           </p>
         </section>

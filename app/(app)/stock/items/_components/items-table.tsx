@@ -9,7 +9,7 @@ import { DataTable, RowHeader, Td, Th, THead } from "@/components/ui/data-table"
 import { ITEM_CATEGORIES } from "@/db/types";
 import type { PutUpKind } from "@/lib/casing/put-ups";
 import type { Item } from "@/lib/data/items";
-import { calibreText, CATEGORY_LABELS, categoryDetail, percentOf, putUpText } from "./format";
+import { calibreText, CATEGORY_LABELS, categoryDetail, percentOf, putUpText, saltNote } from "./format";
 
 const PUT_UP_SHORT: Record<PutUpKind, string> = { hank: "hank", beef_set: "set", tubed_strand: "strand", stick: "stick", box: "box" };
 
@@ -55,7 +55,7 @@ export function ItemsTable({ items, editButton }: { items: Item[]; editButton?: 
                     {detail ? <span className="block text-sm text-brine">{detail}</span> : null}
                     {item.cure ? (
                       <span className="num block whitespace-nowrap text-sm text-pepper-soft xl:hidden">
-                        nitrite {percentOf(item.cure.nitriteFraction)} % · nitrate {percentOf(item.cure.nitrateFraction)} %
+                        nitrite {percentOf(item.cure.nitriteFraction)} %{saltNote(item.cure.nitriteSalt)} · nitrate {percentOf(item.cure.nitrateFraction)} %{saltNote(item.cure.nitrateSalt)}
                       </span>
                     ) : null}
                   </Td>
@@ -74,7 +74,9 @@ export function ItemsTable({ items, editButton }: { items: Item[]; editButton?: 
                   </Td>
                   <Td numeric className="hidden whitespace-nowrap xl:table-cell">
                     {item.cure ? (
-                      <span className="font-semibold">{percentOf(item.cure.nitriteFraction)} % / {percentOf(item.cure.nitrateFraction)} %</span>
+                      <span className="font-semibold">
+                        {percentOf(item.cure.nitriteFraction)} %{saltNote(item.cure.nitriteSalt)} / {percentOf(item.cure.nitrateFraction)} %{saltNote(item.cure.nitrateSalt)}
+                      </span>
                     ) : <span className="text-brine">—</span>}
                   </Td>
                   <Td className="hidden whitespace-nowrap xl:table-cell">
