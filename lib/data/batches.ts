@@ -44,7 +44,9 @@ export interface BatchLine {
   lots: { lotId: string; code: string; date: string | null; dateKind: string | null; quantity: string }[];
   /** the kitchen's available stock in lots still in date on the production day (this batch's own reservations not counted) */
   available: string;
-  /** what reserving would still lack; null when nothing is short */
+  /** what batches planned (not reserved) ahead of this one in the kitchen still need of the item */
+  plannedBefore: string;
+  /** what this batch would lack once the batches ahead have taken theirs; null when nothing is short */
   short: string | null;
   suggestions: ({ kind: "transfer"; kitchen: { id: string; code: string }; quantity: string } | { kind: "buy"; quantity: string })[];
 }
@@ -300,6 +302,19 @@ async function describeBatches(k: Knex | Knex.Transaction, actor: CurrentUser, r
         .groupBy("b.kitchen_id", "bl.item_id").select("b.kitchen_id", "bl.item_id", k.raw("sum(bl.quantity)::text as quantity"))
     : [];
   const plannedUseOf = new Map(plannedUse.map((p) => [`${p.kitchen_id}:${p.item_id}`, dec(p.quantity)]));
+  // batches planned (not yet reserved) ahead of each one in its kitchen: they will want the same stock first
+  const lastDay = days.reduce((a, d) => (d > a ? d : a), days[0]!);
+  const planned: { batch_id: string; kitchen_id: string; day: string; created_at: Date; item_id: string; quantity: string }[] = itemIds.length
+    ? await k("batch_lines as bl").join("batches as b", "b.id", "bl.batch_id")
+        .where("b.company_id", actor.companyId).where("b.status", "planned").whereIn("b.kitchen_id", [...new Set(rows.map((r) => r.kitchen_id))])
+        .where("b.planned_for", "<=", lastDay).whereIn("bl.item_id", itemIds)
+        .select("b.id as batch_id", "b.kitchen_id", k.raw("to_char(b.planned_for, 'YYYY-MM-DD') as day"), "b.created_at", "bl.item_id", "bl.quantity")
+    : [];
+  const plannedBefore = (b: BatchRow, itemId: string) =>
+    planned
+      .filter((p) => p.kitchen_id === b.kitchen_id && p.item_id === itemId && p.batch_id !== b.id
+        && (p.day < b.planned_for || (p.day === b.planned_for && p.created_at.getTime() < b.created_at.getTime())))
+      .reduce((sum, p) => sum.plus(dec(p.quantity)), ZERO);
   const pars: { kitchen_id: string; item_id: string; par_level: string | null }[] = itemIds.length
     ? await k("stock_levels").where({ company_id: actor.companyId }).whereIn("item_id", itemIds).select("kitchen_id", "item_id", "par_level")
     : [];
@@ -316,7 +331,9 @@ async function describeBatches(k: Knex | Knex.Transaction, actor: CurrentUser, r
       const reserved = lots.reduce((s, r) => s.plus(dec(r.quantity)), ZERO);
       const need = Dec.max(dec(l.quantity).minus(reserved), ZERO);
       const here = available.get(`${b.kitchen_id}:${l.item_id}`) ?? ZERO;
-      const short = open && need.gt(here) ? need.minus(here) : null;
+      const ahead = b.status === "planned" ? plannedBefore(b, l.item_id) : ZERO;
+      const left = Dec.max(here.minus(ahead), ZERO);
+      const short = open && need.gt(left) ? need.minus(left) : null;
       const suggestions: BatchLine["suggestions"] = [];
       if (short) {
         let left = short;
@@ -336,7 +353,7 @@ async function describeBatches(k: Knex | Knex.Transaction, actor: CurrentUser, r
         item: { id: l.item_id, sku: l.sku, name: l.name, category: l.category, unit: l.stock_unit },
         quantity: plain(dec(l.quantity)), exactQuantity: plain(dec(l.exact_quantity)), rounding: l.rounding, reserved: plain(reserved),
         lots: lots.map((r) => ({ lotId: r.lot_id, code: r.code, date: r.date, dateKind: r.date_kind, quantity: plain(dec(r.quantity)) })),
-        available: plain(here), short: short ? plain(short) : null, suggestions,
+        available: plain(here), plannedBefore: plain(ahead), short: short ? plain(short) : null, suggestions,
       };
     });
     const fillingG = batchLines.filter((l) => l.role !== "casing" && l.item.unit === "g").reduce((s, l) => s.plus(dec(l.exactQuantity)), dec(b.meat_block_g));

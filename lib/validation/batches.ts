@@ -101,7 +101,8 @@ export const batchResponse = z
         reserved: decimal,
         lots: z.array(z.object({ lotId: z.string(), code: z.string(), date: z.string().nullable(), dateKind: z.string().nullable(), quantity: decimal })),
         available: decimal.meta({ description: "The kitchen's available stock in lots still in date on the production day." }),
-        short: decimal.nullable().meta({ description: "What reserving would still lack; null when nothing is short." }),
+        plannedBefore: decimal.meta({ description: "What batches planned (not yet reserved) ahead of this one in the kitchen still need of the item: they are counted first." }),
+        short: decimal.nullable().meta({ description: "What this batch would lack once the batches ahead of it have taken theirs; null when nothing is short." }),
         suggestions: z.array(
           z.union([
             z.object({ kind: z.literal("transfer"), kitchen: kitchenRef, quantity: decimal }),

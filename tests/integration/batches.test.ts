@@ -199,6 +199,19 @@ describe("shortages and reservations", () => {
     expect(await db()("reservations").where({ batch_id: res.body.id })).toHaveLength(0);
   });
 
+  it("counts batches planned ahead in the same kitchen first, so two plans that do not fit together show it", async () => {
+    const cure = await cureItem();
+    await receive(cure.sku, "30", "g", K(0), lotDate(60));
+    const code = await recipe([{ item: cure.sku, rate: "2", unit: "g/kg" }]);
+    const first = await plan({ kitchen: K(0), recipe: code, plannedFor: day(3), meatBlock: { quantity: "10", unit: "kg" } });
+    const second = await plan({ kitchen: K(0), recipe: code, plannedFor: day(4), meatBlock: { quantity: "10", unit: "kg" } });
+    expect(first.body.lines[0]).toMatchObject({ available: "30", plannedBefore: "0", short: null });
+    expect(second.body.lines[0]).toMatchObject({ available: "30", plannedBefore: "20", short: "10" });
+    // once the first is reserved it has taken its stock: the second sees what is left
+    await reserve(first.body.id);
+    expect((await getBatch(second.body.id)).body.lines[0]).toMatchObject({ available: "10", plannedBefore: "0", short: "10" });
+  });
+
   it("reserves FEFO, skipping a lot that expires on the production day; available drops at once; release gives it back", async () => {
     const cure = await cureItem();
     const onTheDay = await receive(cure.sku, "50", "g", K(0), lotDate(5));

@@ -1,0 +1,249 @@
+"use client";
+
+// The batch page's live part: the plan (refetched after every action), Reserve / Release / Cancel
+// with confirmations where stock is given back or the plan ends, and Print. Each action sends its
+// own Idempotency-Key, kept only while a retry after a lost answer may need it.
+import { useQuery, useQueryClient } from "@tanstack/react-query";
+import { ArrowLeft, Ban, Loader2, Lock, Printer, TriangleAlert, Unlock } from "lucide-react";
+import Link from "next/link";
+import { useRef, useState } from "react";
+import { BomTable } from "@/components/planning/bom-table";
+import { ShortageMarker, shortWords, StatusBadge } from "@/components/planning/batch-badges";
+import { ConfirmDialog } from "@/components/planning/confirm-dialog";
+import { CureCheckPanel } from "@/components/planning/cure-check";
+import { dayFull, dayMedium, mondayOf, weekRange } from "@/components/planning/dates";
+import { gramsText, metresText, putUpWord, quantityText, type UnitsById } from "@/components/planning/quantities";
+import { PageHeader } from "@/components/shell/page-header";
+import { FormMessage, StatusRegion } from "@/components/ui/field";
+import {
+  ApiError, batchQueryOptions, cancelBatch, newIdempotencyKey, planningKeys, releaseBatch, reserveBatch, shortLinesOf, type Batch,
+} from "@/lib/queries/planning";
+import { stockKeys } from "@/lib/queries/stock";
+import { type UnitSystem } from "@/lib/units";
+
+type Action = "reserve" | "release" | "cancel";
+
+export function BatchSheet({ initial, units, untracked, unitSystem, scaleResolutionG, kitchenNames, canManage, printedBy, printedAt }: {
+  initial: Batch;
+  units: UnitsById;
+  untracked: string[];
+  unitSystem: UnitSystem;
+  scaleResolutionG: string;
+  kitchenNames: Record<string, string>;
+  canManage: boolean;
+  printedBy: string;
+  /** when the page was loaded, in the user's time zone */
+  printedAt: string;
+}) {
+  const queryClient = useQueryClient();
+  const q = useQuery({ ...batchQueryOptions(initial.id), initialData: initial, staleTime: 0 });
+  const batch = q.data;
+  const [busy, setBusy] = useState<Action | null>(null);
+  const [confirming, setConfirming] = useState<"release" | "cancel" | null>(null);
+  const [done, setDone] = useState<string>();
+  const [error, setError] = useState<string>();
+  const keys = useRef<Partial<Record<Action, string>>>({});
+  const open = batch.status === "planned" || batch.status === "reserved";
+  const lineOf = (position: number) => batch.lines.find((l) => l.position === position);
+
+  async function act(action: Action) {
+    if (busy) return;
+    setBusy(action);
+    setError(undefined);
+    setDone(undefined);
+    const key = (keys.current[action] ??= newIdempotencyKey());
+    try {
+      const run = action === "reserve" ? reserveBatch : action === "release" ? releaseBatch : cancelBatch;
+      const next = await run(batch.id, key);
+      keys.current[action] = undefined;
+      queryClient.setQueryData(planningKeys.batch(batch.id), next);
+      setDone(
+        action === "reserve"
+          ? `Reserved: every line of ${next.recipe.code} is held for ${dayFull(next.plannedFor)}, first expired first out.`
+          : action === "release"
+            ? `Released: the lots went back to available stock in ${next.kitchen.name}. The batch is still planned.`
+            : `Cancelled: ${next.recipe.code} on ${dayFull(next.plannedFor)} is off the plan${batch.status === "reserved" ? " and its lots are available again" : ""}.`,
+      );
+      setConfirming(null);
+    } catch (e) {
+      if (!(e instanceof ApiError) || e.status === 0) {
+        setError(`${e instanceof Error ? e.message : "Something went wrong."} Try again: it cannot happen twice.`);
+        return;
+      }
+      keys.current[action] = undefined;
+      setConfirming(null);
+      const short = shortLinesOf(e);
+      if (e.code === "SHORTAGE" && short.length) {
+        const parts = short.map((s) => {
+          const line = lineOf(s.position);
+          const f = (v: string) => (line ? quantityText(v, line.item, units, unitSystem) : `${v} ${s.unit}`);
+          return `${s.sku} needs ${f(s.needed)}, only ${f(s.available)} can be reserved`;
+        });
+        setError(`Nothing was reserved (a batch is reserved all or nothing): ${parts.join("; ")}.`);
+      } else {
+        setError(e.message);
+      }
+    } finally {
+      setBusy(null);
+      await queryClient.invalidateQueries({ queryKey: planningKeys.batches() });
+      await queryClient.invalidateQueries({ queryKey: stockKeys.all });
+      await queryClient.invalidateQueries({ queryKey: planningKeys.batch(batch.id) });
+    }
+  }
+
+  const casingLine = batch.lines.find((l) => l.role === "casing");
+  const monday = mondayOf(batch.plannedFor);
+
+  return (
+    <div className="space-y-6 print:space-y-4">
+      <div className="flex flex-wrap items-center justify-between gap-3 print:hidden">
+        <Link href={`/planning?week=${monday}`} className="btn-quiet">
+          <ArrowLeft aria-hidden className="h-5 w-5" /> Week of {weekRange(monday)}
+        </Link>
+        <div className="flex flex-wrap gap-2">
+          {canManage && batch.status === "planned" ? (
+            <button type="button" className="btn-primary" onClick={() => void act("reserve")} disabled={busy !== null}>
+              {busy === "reserve" ? <Loader2 aria-hidden className="h-5 w-5 animate-spin" /> : <Lock aria-hidden className="h-5 w-5" />}
+              Reserve
+            </button>
+          ) : null}
+          {canManage && batch.status === "reserved" ? (
+            <button type="button" className="btn-quiet" onClick={() => setConfirming("release")} disabled={busy !== null}>
+              <Unlock aria-hidden className="h-5 w-5" /> Release
+            </button>
+          ) : null}
+          {canManage && open ? (
+            <button type="button" className="btn-quiet text-ember" onClick={() => setConfirming("cancel")} disabled={busy !== null}>
+              <Ban aria-hidden className="h-5 w-5" /> Cancel batch
+            </button>
+          ) : null}
+          <button type="button" className="btn-quiet" onClick={() => window.print()}>
+            <Printer aria-hidden className="h-5 w-5" /> Print
+          </button>
+        </div>
+      </div>
+
+      <div className="[&>header]:mb-0">
+        <PageHeader
+          title={`Batch ${batch.recipe.code}`}
+          kitchen={batch.kitchen}
+          description={`${dayFull(batch.plannedFor)} · ${batch.recipe.name}, version ${batch.recipe.version}`}
+        />
+      </div>
+      <div className="flex flex-wrap items-center gap-2">
+        <StatusBadge status={batch.status} />
+        <ShortageMarker status={batch.status} shortLines={batch.shortLines} />
+        {batch.batchCode ? <span className="text-sm text-brine">Batch code {batch.batchCode}</span> : null}
+        <Link href={`/planning/recipes/${batch.recipe.id}?version=${batch.recipe.version}`} className="ml-auto text-sm font-semibold text-paprika underline-offset-2 hover:underline print:hidden">
+          Recipe version {batch.recipe.version}
+        </Link>
+      </div>
+
+      <StatusRegion>{done}</StatusRegion>
+      {error ? <FormMessage tone="error">{error}</FormMessage> : null}
+
+      <dl className="grid grid-cols-2 gap-3 md:grid-cols-4 print:grid-cols-4">
+        <Fact label="Production day">{dayMedium(batch.plannedFor)}</Fact>
+        <Fact label="Meat block (green weight)">{gramsText(batch.meatBlockG, unitSystem)}</Fact>
+        <Fact label="Filling mass">
+          {gramsText(batch.fillingG, unitSystem)}
+          <span className="block text-sm font-normal text-brine">meat plus what is mixed in</span>
+        </Fact>
+        {batch.links ? (
+          <Fact label="Links">
+            {batch.links.count} × {gramsText(batch.links.weightG, unitSystem)}
+          </Fact>
+        ) : (
+          <Fact label="Planned by">{batch.createdBy?.name ?? "—"}</Fact>
+        )}
+      </dl>
+
+      {batch.casing && casingLine ? (
+        <section aria-labelledby="casing-heading" className="panel flex flex-wrap items-baseline gap-x-6 gap-y-1 px-4 py-3 break-inside-avoid">
+          <h2 id="casing-heading" className="font-sans text-base font-semibold">Casing: {casingLine.item.sku}</h2>
+          <p className="num">
+            <span className="font-semibold">{metresText(batch.casing.metres, unitSystem)}</span> of casing
+            {batch.casing.putUps ? <> · {quantityText(batch.casing.putUps, casingLine.item, units, unitSystem)}</> : null}
+          </p>
+          {batch.casing.putUpsToOpen !== null ? (
+            <p className="font-semibold">
+              Open {batch.casing.putUpsToOpen} {putUpWord(casingLine.item.id, units, batch.casing.putUpsToOpen)}
+            </p>
+          ) : null}
+          <p className="w-full text-sm text-brine">{batch.casing.source}</p>
+        </section>
+      ) : null}
+      {batch.notes.map((n) => (
+        <p key={n} className="flex items-start gap-2 rounded-md border border-amber/40 bg-amber-soft px-3 py-2 text-sm text-pepper">
+          <TriangleAlert aria-hidden className="mt-0.5 h-4 w-4 shrink-0 text-amber" /> {n}
+        </p>
+      ))}
+
+      <section aria-labelledby="bom-heading" className="space-y-2">
+        <div className="flex flex-wrap items-baseline justify-between gap-2">
+          <h2 id="bom-heading" className="text-xl font-semibold">Bill of materials</h2>
+          {open && batch.shortLines > 0 ? (
+            <p className="text-sm font-semibold text-ember">
+              {shortWords(batch.shortLines)}: reserving is all or nothing, so nothing can be held until each line has stock here.
+            </p>
+          ) : null}
+        </div>
+        <BomTable
+          batch={batch}
+          units={units}
+          untracked={untracked}
+          unitSystem={unitSystem}
+          scaleResolutionG={scaleResolutionG}
+          kitchenNames={kitchenNames}
+        />
+        <p className="text-sm text-brine">
+          Quantities in each item&rsquo;s unit for your {unitSystem === "us" ? "US" : "metric"} setting; cure in grams, rounded to the kitchen scale toward
+          compliance. Available is what the kitchen still has free (not counting what this batch holds) in lots still in date on the production day.
+        </p>
+      </section>
+
+      {batch.cure ? <CureCheckPanel cure={batch.cure} basis="the rounded amounts as planned" headingId="cure-heading" /> : null}
+
+      {batch.note ? (
+        <section aria-labelledby="note-heading" className="break-inside-avoid">
+          <h2 id="note-heading" className="text-xl font-semibold">Note</h2>
+          <p className="mt-1 whitespace-pre-line">{batch.note}</p>
+        </section>
+      ) : null}
+
+      <p className="hidden text-sm text-pepper-soft print:block">
+        Printed {printedAt} by {printedBy}. Weighed by: ______________________ Checked by: ______________________
+      </p>
+
+      <ConfirmDialog
+        open={confirming === "release"}
+        title="Release the reserved lots?"
+        confirmLabel="Release"
+        busy={busy === "release"}
+        onConfirm={() => void act("release")}
+        onClose={() => setConfirming(null)}
+      >
+        <p>The lots held for {batch.recipe.code} on {dayFull(batch.plannedFor)} go back to available stock in {batch.kitchen.name}, where other batches may take them. The batch stays planned.</p>
+      </ConfirmDialog>
+      <ConfirmDialog
+        open={confirming === "cancel"}
+        title="Cancel this batch?"
+        confirmLabel="Cancel batch"
+        busy={busy === "cancel"}
+        onConfirm={() => void act("cancel")}
+        onClose={() => setConfirming(null)}
+      >
+        <p>{batch.recipe.code} on {dayFull(batch.plannedFor)} comes off the plan{batch.status === "reserved" ? " and its reserved lots go back to available stock" : ""}. A cancelled batch cannot be planned again: plan a new one instead.</p>
+      </ConfirmDialog>
+    </div>
+  );
+}
+
+function Fact({ label, children }: { label: string; children: React.ReactNode }) {
+  return (
+    <div className="panel px-4 py-3 print:rounded-none print:border-pepper/40">
+      <dt className="text-sm text-brine">{label}</dt>
+      <dd className="num text-lg font-semibold">{children}</dd>
+    </div>
+  );
+}

@@ -1,0 +1,71 @@
+// Days and weeks of the planner. Dates travel as yyyy-mm-dd and are computed at noon UTC, so no
+// time zone or daylight-saving change can move a day. Weeks start on Monday (ISO 8601; the issue's
+// default, no company setting for another first day yet).
+
+const at = (day: string) => new Date(`${day}T12:00:00Z`);
+const iso = (d: Date) => d.toISOString().slice(0, 10);
+
+export const isIsoDay = (s: unknown): s is string => typeof s === "string" && /^\d{4}-\d{2}-\d{2}$/.test(s) && !Number.isNaN(at(s).getTime()) && iso(at(s)) === s;
+
+export function addDays(day: string, n: number): string {
+  const d = at(day);
+  d.setUTCDate(d.getUTCDate() + n);
+  return iso(d);
+}
+
+/** The Monday of the week a day falls in. */
+export function mondayOf(day: string): string {
+  const weekday = (at(day).getUTCDay() + 6) % 7; // Monday 0 ... Sunday 6
+  return addDays(day, -weekday);
+}
+
+/** Monday to Sunday. */
+export const weekDays = (monday: string): string[] => Array.from({ length: 7 }, (_, i) => addDays(monday, i));
+
+/**
+ * The week the planner opens on. Early in the week (Monday to Wednesday) a kitchen lead is still
+ * running this week's batches; from Thursday their planning is for next week, so that is shown.
+ */
+export function defaultWeek(today: string): string {
+  const weekday = (at(today).getUTCDay() + 6) % 7;
+  return weekday >= 3 ? addDays(mondayOf(today), 7) : mondayOf(today);
+}
+
+/** Today's date (yyyy-mm-dd) in a time zone. */
+export function todayIn(timeZone: string): string {
+  return new Intl.DateTimeFormat("en-CA", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" }).format(new Date());
+}
+
+const longDay = new Intl.DateTimeFormat("en-GB", { timeZone: "UTC", weekday: "long", day: "numeric", month: "long" });
+const shortDay = new Intl.DateTimeFormat("en-GB", { timeZone: "UTC", weekday: "short", day: "numeric", month: "short" });
+const fullDay = new Intl.DateTimeFormat("en-GB", { timeZone: "UTC", weekday: "long", day: "numeric", month: "long", year: "numeric" });
+const plainDay = new Intl.DateTimeFormat("en-GB", { timeZone: "UTC", day: "numeric", month: "short", year: "numeric" });
+
+/** "Tuesday 8 December" */
+export const dayLong = (day: string) => longDay.format(at(day));
+/** "Tue 8 Dec" */
+export const dayShort = (day: string) => shortDay.format(at(day));
+/** "Tuesday 8 December 2026" */
+export const dayFull = (day: string) => fullDay.format(at(day));
+const mediumDay = new Intl.DateTimeFormat("en-GB", { timeZone: "UTC", weekday: "short", day: "numeric", month: "short", year: "numeric" });
+/** "Tue 8 Dec 2026" */
+export const dayMedium = (day: string) => mediumDay.format(at(day));
+/** "8 Dec 2026" */
+export const dayPlain = (day: string) => plainDay.format(at(day));
+
+/** "7 – 13 December 2026", "28 December 2026 – 3 January 2027" */
+export function weekRange(monday: string): string {
+  const sunday = addDays(monday, 6);
+  const a = at(monday);
+  const b = at(sunday);
+  const fmt = (d: Date, o: Intl.DateTimeFormatOptions) => new Intl.DateTimeFormat("en-GB", { timeZone: "UTC", ...o }).format(d);
+  if (a.getUTCFullYear() !== b.getUTCFullYear()) return `${fmt(a, { day: "numeric", month: "long", year: "numeric" })} – ${fmt(b, { day: "numeric", month: "long", year: "numeric" })}`;
+  if (a.getUTCMonth() !== b.getUTCMonth()) return `${fmt(a, { day: "numeric", month: "long" })} – ${fmt(b, { day: "numeric", month: "long", year: "numeric" })}`;
+  return `${a.getUTCDate()} – ${fmt(b, { day: "numeric", month: "long", year: "numeric" })}`;
+}
+
+/** Which week a Monday is, seen from today: "This week", "Next week", "Last week" or null. */
+export function weekWord(monday: string, today: string): string | null {
+  const diff = Math.round((at(monday).getTime() - at(mondayOf(today)).getTime()) / (7 * 86_400_000));
+  return diff === 0 ? "This week" : diff === 1 ? "Next week" : diff === -1 ? "Last week" : null;
+}
