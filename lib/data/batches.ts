@@ -22,7 +22,7 @@ import { houseChecks, type HouseCheck } from "../cure/house";
 import { AppError, conflict, notFound, validation } from "../http/errors";
 import { billOfMaterials, BomLineError, checkCureAmounts, roundCure } from "../recipes/bom";
 import { convert, Dec, dec, plain, toStockUnits, toStored, UnitError, ZERO } from "../units";
-import type { BatchCreateInput, BatchProduceInput } from "../validation/batches";
+import type { BatchChangeInput, BatchCreateInput, BatchProduceInput } from "../validation/batches";
 import { casingBasisForItem } from "./casing-calculation";
 import { getCureSettings } from "./companies";
 import { loadHouseLimits } from "./house-limits";
@@ -121,32 +121,35 @@ function massIn(amount: { quantity: string; unit: string }, to: string, field: s
 // ---------------------------------------------------------------------------------------------
 // Planning
 
-export async function createBatch(actor: CurrentUser, input: BatchCreateInput): Promise<Batch> {
-  const k = db();
-  const kitchen = await kitchenByCode(k, actor, input.kitchen);
-  assertCan(actor, "planning.manage", { kitchenId: kitchen.id });
-  if (kitchen.archived_at) throw validation({ kitchen: [`Kitchen ${kitchen.code} is archived.`] });
+interface PlanInput {
+  plannedFor: string;
+  meatBlock?: { quantity: string; unit: string };
+  links?: { count: number; weight: { quantity: string; unit: string } };
+  casing?: string;
+  overrideReason?: string;
+}
+
+type VersionSpec = Awaited<ReturnType<typeof loadVersionSpec>>;
+
+/**
+ * A plan's contents from a recipe version and what the person asked for: the meat block, the bill
+ * of materials with cure rounded toward compliance, the house checks and the casing. Refuses (422)
+ * a day in the past, a plan over a statutory maximum, a missed house limit without a manager's
+ * reason, a casing outside the recipe's calibre range.
+ */
+async function draftPlan(k: Knex | Knex.Transaction, actor: CurrentUser, kitchen: KitchenRow, { version, spec }: VersionSpec, input: PlanInput) {
   const today = await companyToday(k, actor.companyId);
   if (input.plannedFor < today) throw validation({ plannedFor: [`Plan for today (${today}) or later.`] });
 
-  const recipe: { id: string; current_version: number; archived_at: Date | null; name: string } | undefined = await k("recipes")
-    .where({ company_id: actor.companyId })
-    .where(UUID.test(input.recipe) ? { id: input.recipe } : { code: input.recipe.toUpperCase() })
-    .first("id", "current_version", "archived_at", "name");
-  if (!recipe) throw notFound("Recipe");
-  if (recipe.archived_at) throw validation({ recipe: [`${recipe.name} is archived.`] });
-  const versionNumber = input.version ?? recipe.current_version;
-  const versionRow: { id: string } | undefined = await k("recipe_versions").where({ recipe_id: recipe.id, version: versionNumber }).first("id");
-  if (!versionRow) throw validation({ version: [`${recipe.name} has no version ${versionNumber}.`] });
-  const { version, spec } = await loadVersionSpec(k, actor.companyId, versionRow.id);
-
   // the meat block: given, or from links (filling = count x weight; meat = filling / filling per g of meat)
   let meatG: Dec;
+  let linkWeightG: Dec | null = null;
   if (input.meatBlock) {
     meatG = massIn(input.meatBlock, "g", "meatBlock");
   } else {
     const perKg = billOfMaterials(spec, dec("1000")).fillingGrams;
-    meatG = massIn(input.links!.weight, "g", "links.weight").times(String(input.links!.count)).times("1000").div(perKg);
+    linkWeightG = massIn(input.links!.weight, "g", "links.weight");
+    meatG = linkWeightG.times(String(input.links!.count)).times("1000").div(perKg);
   }
   meatG = dec(toStored(meatG));
   if (meatG.lte(ZERO)) throw validation({ meatBlock: ["The meat block must be more than zero."] });
@@ -204,39 +207,101 @@ export async function createBatch(actor: CurrentUser, input: BatchCreateInput): 
     casingLine = { item: row, quantity, metres: need.metres, source };
   }
 
-  const id = await k.transaction(async (trx) => {
-    const [b] = await trx("batches")
-      .insert({
-        company_id: actor.companyId, kitchen_id: kitchen.id, recipe_id: recipe.id, recipe_version_id: version.id, planned_for: input.plannedFor,
-        meat_block_g: toStored(meatG), link_count: input.links?.count ?? null,
-        link_weight_g: input.links ? toStored(massIn(input.links.weight, "g", "links.weight")) : null,
-        casing_item_id: casingLine?.item.id ?? null, casing_metres: casingLine ? toStored(casingLine.metres) : null, casing_source: casingLine?.source ?? null,
-        status: "planned", cure_check: rounded ? JSON.stringify(rounded.check) : null,
-        note: input.note, created_by: actor.id,
-        house_checks: JSON.stringify(house), override_reason: missed.length ? input.overrideReason : null, override_by: missed.length ? actor.id : null,
-      })
-      .returning<{ id: string }[]>("id");
-    if (missed.length) {
-      await trx("audit_events").insert({
-        company_id: actor.companyId, actor_id: actor.id, action: "batch.house_limit_overridden", subject_type: "batch", subject_id: b!.id,
-        reason: input.overrideReason!, details: JSON.stringify({ missed }),
-      });
-    }
-    const lines = bom.lines.map((l) => {
-      const cureGrams = rounded?.grams.get(l.position);
-      return {
-        company_id: actor.companyId, batch_id: b!.id, position: l.position, item_id: l.item.id, role: l.item.category === "cure" ? "cure" : "ingredient",
-        quantity: toStored(cureGrams ?? l.quantity), exact_quantity: toStored(l.quantity), rounding: rounded?.rounding.get(l.position) ?? "exact",
-      };
-    });
+  const columns = {
+    planned_for: input.plannedFor,
+    meat_block_g: toStored(meatG),
+    link_count: input.links?.count ?? null,
+    link_weight_g: linkWeightG ? toStored(linkWeightG) : null,
+    casing_item_id: casingLine?.item.id ?? null,
+    casing_metres: casingLine ? toStored(casingLine.metres) : null,
+    casing_source: casingLine?.source ?? null,
+    cure_check: rounded ? JSON.stringify(rounded.check) : null,
+    house_checks: JSON.stringify(house),
+    override_reason: missed.length ? input.overrideReason! : null,
+    override_by: missed.length ? actor.id : null,
+  };
+  const lines = (batchId: string) => {
+    const out = bom.lines.map((l) => ({
+      company_id: actor.companyId, batch_id: batchId, position: l.position, item_id: l.item.id, role: l.item.category === "cure" ? "cure" : "ingredient",
+      quantity: toStored(rounded?.grams.get(l.position) ?? l.quantity), exact_quantity: toStored(l.quantity), rounding: rounded?.rounding.get(l.position) ?? "exact",
+    }));
     if (casingLine) {
-      lines.push({
-        company_id: actor.companyId, batch_id: b!.id, position: bom.lines.length + 1, item_id: casingLine.item.id, role: "casing",
+      out.push({
+        company_id: actor.companyId, batch_id: batchId, position: bom.lines.length + 1, item_id: casingLine.item.id, role: "casing",
         quantity: toStored(casingLine.quantity), exact_quantity: toStored(casingLine.quantity), rounding: "exact",
       });
     }
+    return out;
+  };
+  return { columns, lines, missed };
+}
+
+async function auditOverride(trx: Knex.Transaction, actor: CurrentUser, batchId: string, reason: string, missed: HouseCheck[]) {
+  await trx("audit_events").insert({
+    company_id: actor.companyId, actor_id: actor.id, action: "batch.house_limit_overridden", subject_type: "batch", subject_id: batchId,
+    reason, details: JSON.stringify({ missed }),
+  });
+}
+
+export async function createBatch(actor: CurrentUser, input: BatchCreateInput): Promise<Batch> {
+  const k = db();
+  const kitchen = await kitchenByCode(k, actor, input.kitchen);
+  assertCan(actor, "planning.manage", { kitchenId: kitchen.id });
+  if (kitchen.archived_at) throw validation({ kitchen: [`Kitchen ${kitchen.code} is archived.`] });
+
+  const recipe: { id: string; current_version: number; archived_at: Date | null; name: string } | undefined = await k("recipes")
+    .where({ company_id: actor.companyId })
+    .where(UUID.test(input.recipe) ? { id: input.recipe } : { code: input.recipe.toUpperCase() })
+    .first("id", "current_version", "archived_at", "name");
+  if (!recipe) throw notFound("Recipe");
+  if (recipe.archived_at) throw validation({ recipe: [`${recipe.name} is archived.`] });
+  const versionNumber = input.version ?? recipe.current_version;
+  const versionRow: { id: string } | undefined = await k("recipe_versions").where({ recipe_id: recipe.id, version: versionNumber }).first("id");
+  if (!versionRow) throw validation({ version: [`${recipe.name} has no version ${versionNumber}.`] });
+  const draft = await draftPlan(k, actor, kitchen, await loadVersionSpec(k, actor.companyId, versionRow.id), input);
+
+  const id = await k.transaction(async (trx) => {
+    const [b] = await trx("batches")
+      .insert({
+        company_id: actor.companyId, kitchen_id: kitchen.id, recipe_id: recipe.id, recipe_version_id: versionRow.id,
+        status: "planned", note: input.note, created_by: actor.id, ...draft.columns,
+      })
+      .returning<{ id: string }[]>("id");
+    if (draft.missed.length) await auditOverride(trx, actor, b!.id, input.overrideReason!, draft.missed);
+    const lines = draft.lines(b!.id);
     if (lines.length) await trx("batch_lines").insert(lines);
     return b!.id;
+  });
+  return getBatch(actor, id);
+}
+
+/**
+ * Changes a planned batch (day, meat block or links, casing, note): its reservations are released
+ * and its lines worked out again from the same recipe version, in one transaction; reserve again
+ * afterwards. A different recipe is a new plan.
+ */
+export async function changeBatch(actor: CurrentUser, id: string, input: BatchChangeInput): Promise<Batch> {
+  await inTransaction(async (trx) => {
+    const batch = await lockBatch(trx, actor, id, "planning.manage");
+    if (batch.status !== "planned" && batch.status !== "reserved") throw conflict(`This batch is ${batch.status}: only a planned batch can be changed.`);
+    const kitchen: KitchenRow = await trx("kitchens").where({ id: batch.kitchen_id }).first();
+    const spec = await loadVersionSpec(trx, actor.companyId, batch.recipe_version_id);
+    const keepsSize = !input.meatBlock && !input.links;
+    const draft = await draftPlan(trx, actor, kitchen, spec, {
+      plannedFor: input.plannedFor ?? batch.planned_for,
+      meatBlock: input.meatBlock ?? (keepsSize && !batch.link_count ? { quantity: plain(dec(batch.meat_block_g)), unit: "g" } : undefined),
+      links: input.links ?? (keepsSize && batch.link_count ? { count: batch.link_count, weight: { quantity: plain(dec(batch.link_weight_g!)), unit: "g" } } : undefined),
+      casing: input.casing ?? batch.casing_item_id ?? undefined,
+      overrideReason: input.overrideReason,
+    });
+    await releaseIn(trx, batch);
+    await trx("batch_lines").where({ batch_id: batch.id }).delete();
+    const lines = draft.lines(batch.id);
+    if (lines.length) await trx("batch_lines").insert(lines);
+    await trx("batches").where({ id: batch.id }).update({
+      ...draft.columns, status: "planned", note: input.note ?? batch.note, updated_at: trx.fn.now(),
+    });
+    if (draft.missed.length) await auditOverride(trx, actor, batch.id, input.overrideReason!, draft.missed);
   });
   return getBatch(actor, id);
 }

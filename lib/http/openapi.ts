@@ -33,7 +33,7 @@ import { companyUpdateInput, invitationCreateInput, kitchenCreateInput, kitchenU
 import { casingCalculationInput, casingCalculationResponse } from "../validation/casing";
 import { cureCalculationInput, cureCalculationResponse } from "../validation/cure";
 import {
-  batchCreateInput, batchListQuery, batchListResponse, batchProduceInput, batchReserveAllInput, batchResponse, batchTraceResponse, holdReleaseInput, lotTraceResponse,
+  batchChangeInput, batchCreateInput, batchListQuery, batchListResponse, batchProduceInput, batchReserveAllInput, batchResponse, batchTraceResponse, holdReleaseInput, lotTraceResponse,
   reserveAllResponse, traceQuery,
 } from "../validation/batches";
 import { houseLimitsInput, houseLimitsResponse } from "../validation/house-limits";
@@ -547,6 +547,20 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
     params: BATCH_ID,
     success: { status: 200, description: "The batch.", schema: batchResponse },
     errors: { 403: [["FORBIDDEN", "Your role does not read plans."]], 404: [["NOT_FOUND", "No such batch in your company."]] },
+  },
+  {
+    method: "patch", path: "/api/batches/{id}", operationId: "changeBatch", tag: "Planning", auth: true, idempotent: true,
+    summary: "Change a batch plan",
+    description: "A new day, meat block (or links), casing or note for a planned batch. Its reservations are released and its lines worked out again from the same recipe version, with the same checks as a new plan; reserve again afterwards. A different recipe is a new plan.",
+    params: BATCH_ID,
+    body: requestBody("BatchChangeInput", batchChangeInput),
+    success: { status: 200, description: "The changed batch, planned.", schema: batchResponse },
+    errors: {
+      403: [["FORBIDDEN", "Not your kitchen."]],
+      404: [["NOT_FOUND", "No such batch in your company."]],
+      409: [["CONFLICT", "The batch is produced, on hold or cancelled."]],
+      422: [["VALIDATION", "A field is wrong, the cure would be over a statutory maximum, or a house limit is missed without a manager's reason: details.fields names it."]],
+    },
   },
   {
     method: "post", path: "/api/batches/{id}/reserve", operationId: "reserveBatch", tag: "Planning", auth: true, idempotent: true,

@@ -34,6 +34,20 @@ export const batchCreateInput = z
   });
 export type BatchCreateInput = z.infer<typeof batchCreateInput>;
 
+export const batchChangeInput = z
+  .object({
+    plannedFor: isoDate.optional(),
+    meatBlock: amount("meat block").optional(),
+    links: z.object({ count: z.number().int().positive().max(1_000_000), weight: amount("link weight") }).optional(),
+    casing: z.string().trim().min(1).max(80).optional(),
+    note: z.string().trim().max(1000).optional(),
+    overrideReason: z.string().trim().min(1, "Say why the house limit is overridden.").max(1000).optional(),
+  })
+  .superRefine((v, ctx) => {
+    if (v.meatBlock && v.links) ctx.addIssue({ code: "custom", path: ["links"], message: "Give the meat block or the links, not both." });
+  });
+export type BatchChangeInput = z.infer<typeof batchChangeInput>;
+
 export const batchListQuery = z.object({
   kitchen: z.string().trim().min(1).max(40).optional(),
   from: isoDate.optional(),

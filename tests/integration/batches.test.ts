@@ -18,7 +18,7 @@ import { GET as traceBatchRoute } from "../../app/api/trace/batches/[id]/route";
 import { GET as traceLotRoute } from "../../app/api/trace/lots/[id]/route";
 import { POST as releaseRoute } from "../../app/api/batches/[id]/release/route";
 import { POST as reserveRoute } from "../../app/api/batches/[id]/reserve/route";
-import { GET as batchGet } from "../../app/api/batches/[id]/route";
+import { GET as batchGet, PATCH as batchPatch } from "../../app/api/batches/[id]/route";
 import { POST as reserveAllRoute } from "../../app/api/batches/reserve-all/route";
 import { GET as batchesList, POST as batchCreate } from "../../app/api/batches/route";
 import { PUT as houseLimitsRoute } from "../../app/api/house-limits/route";
@@ -248,6 +248,29 @@ describe("shortages and reservations", () => {
     expect(Number(await reservedOf(lot))).toBe(20);
     const bal = await db()("stock_balances").where({ lot_id: lot }).first();
     expect(Number(bal.on_hand) - Number(bal.reserved)).toBe(10);
+  });
+
+  it("changing a plan releases its reservation and works the lines out again", async () => {
+    const cure = await cureItem();
+    const lot = await receive(cure.sku, "100", "g", K(0), lotDate(30));
+    const code = await recipe([{ item: cure.sku, rate: "2", unit: "g/kg" }]);
+    const planned = await plan({ kitchen: K(0), recipe: code, plannedFor: day(3), meatBlock: { quantity: "10", unit: "kg" } });
+    await reserve(planned.body.id);
+    expect(Number(await reservedOf(lot))).toBe(20);
+    const changed = await call(batchPatch, {
+      method: "PATCH", path: `/api/batches/${planned.body.id}`, params: { id: planned.body.id }, cookie: cookie.kitchen_lead,
+      body: { plannedFor: day(4), meatBlock: { quantity: "15", unit: "kg" } },
+    });
+    expect(changed.status, JSON.stringify(changed.body)).toBe(200);
+    expect(changed.body).toMatchObject({ status: "planned", plannedFor: day(4), meatBlockG: "15000" });
+    expect(changed.body.lines[0]).toMatchObject({ quantity: "30", reserved: "0" });
+    expect(Number(await reservedOf(lot))).toBe(0);
+    // only the day: the size stays
+    const moved = await call(batchPatch, { method: "PATCH", path: `/api/batches/${planned.body.id}`, params: { id: planned.body.id }, cookie: cookie.kitchen_lead, body: { plannedFor: day(5) } });
+    expect(moved.body).toMatchObject({ plannedFor: day(5), meatBlockG: "15000" });
+    const past = await call(batchPatch, { method: "PATCH", path: `/api/batches/${planned.body.id}`, params: { id: planned.body.id }, cookie: cookie.kitchen_lead, body: { plannedFor: day(-3) } });
+    expect(Object.keys(past.body.error.details.fields)).toEqual(["plannedFor"]);
+    expect(await ledgerMismatches(co.company.id)).toEqual([]);
   });
 
   it("cancelling releases; reserve-all reserves each planned batch of the week all or nothing", async () => {
