@@ -4,10 +4,10 @@
 // company has no recipe yet.
 import type { Knex } from "knex";
 import type { CurrentUser } from "../../lib/auth/current-user";
-import { createBatch, reserveBatch } from "../../lib/data/batches";
+import { createBatch, produceBatch, reserveBatch } from "../../lib/data/batches";
 import { createRecipe } from "../../lib/data/recipes";
 import { loadCurrentUser } from "../../lib/data/users";
-import { batchCreateInput } from "../../lib/validation/batches";
+import { batchCreateInput, batchProduceInput } from "../../lib/validation/batches";
 import { recipeCreateInput } from "../../lib/validation/recipes";
 
 const lean = (pct: string, fat: string, leanName = "Pork shoulder, trimmed", fatName = "Back fat") => [
@@ -60,8 +60,12 @@ export const DEMO_RECIPES = [
   },
 ];
 
-/** Next week's plans in the lead's kitchen (offsets in days from today) and which to reserve. */
-export const DEMO_BATCHES = [
+/**
+ * Plans in the lead's kitchen (offsets in days from today): which to reserve, and one made today
+ * (actual meat weight as weighed) so the batch codes and the lot traces have something to show.
+ */
+export const DEMO_BATCHES: { recipe: string; kitchen: string; inDays: number; meatKg: string; reserve: boolean; producedWithKg?: string }[] = [
+  { recipe: "YARD-SMK", kitchen: "YARD", inDays: 0, meatKg: "20", reserve: true, producedWithKg: "20.3" },
   { recipe: "YARD-SMK", kitchen: "YARD", inDays: 5, meatKg: "40", reserve: true },
   { recipe: "LANE-BKF", kitchen: "YARD", inDays: 6, meatKg: "25", reserve: false },
   { recipe: "YARD-SMK", kitchen: "YARD", inDays: 8, meatKg: "60", reserve: false },
@@ -93,6 +97,7 @@ export async function loadDemoRecipes(knex: Knex, companyId: string, today: stri
     const batch = await createBatch(lead, batchCreateInput.parse({ kitchen: b.kitchen, recipe: b.recipe, plannedFor: day.toISOString().slice(0, 10), meatBlock: { quantity: b.meatKg, unit: "kg" } }));
     batches++;
     if (b.reserve && batch.shortLines === 0) await reserveBatch(lead, batch.id);
+    if (b.producedWithKg) await produceBatch(lead, batch.id, batchProduceInput.parse({ actualMeatBlock: { quantity: b.producedWithKg, unit: "kg" } }));
   }
   return { recipes, batches };
 }

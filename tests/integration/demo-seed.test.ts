@@ -107,16 +107,19 @@ describe("loadDemo on an empty database", () => {
   });
 
   it("writes the demo recipes through the same checks as a person, and next week's plans in the Yard", async () => {
-    expect(loaded.recipes).toEqual({ recipes: 3, batches: 3 });
+    expect(loaded.recipes).toEqual({ recipes: 3, batches: 4 });
     const first = await seedDb("companies").where({ name: "Quillmoor Provisions" }).first();
     expect(await seedDb("recipes").where({ company_id: first.id }).orderBy("code").pluck("code")).toEqual(["LANE-BKF", "ROPE-SAL", "YARD-SMK"]);
     // every recipe's lines found their demo items (none was dropped for a missing SKU)
     const lines = await seedDb("recipe_lines as l").join("recipe_versions as v", "v.id", "l.recipe_version_id").join("recipes as r", "r.id", "v.recipe_id")
       .where("r.company_id", first.id).groupBy("r.code").select("r.code", seedDb.raw("count(*)::int as n"));
     expect(Object.fromEntries(lines.map((l: { code: string; n: number }) => [l.code, l.n]))).toEqual({ "YARD-SMK": 6, "LANE-BKF": 5, "ROPE-SAL": 7 });
-    const batches = await seedDb("batches as b").join("kitchens as k", "k.id", "b.kitchen_id").where("b.company_id", first.id).orderBy("b.planned_for").select("k.code", "b.status");
-    expect(batches.map((b: { code: string }) => b.code)).toEqual(["YARD", "YARD", "YARD"]);
-    expect(batches[0].status).toBe("reserved");
+    const batches = await seedDb("batches as b").join("kitchens as k", "k.id", "b.kitchen_id").where("b.company_id", first.id).orderBy("b.planned_for").select("k.code", "b.status", "b.batch_code", "b.id");
+    expect(batches.map((b: { code: string }) => b.code)).toEqual(["YARD", "YARD", "YARD", "YARD"]);
+    // one made today (its use movements name it, so its lots trace to it), the next one reserved
+    expect(batches[0]).toMatchObject({ status: "produced", batch_code: expect.stringMatching(/^YARD-SMK-\d{6}-1$/) });
+    expect(await countOf(seedDb, "stock_movements", { batch_id: batches[0].id })).toBeGreaterThan(0);
+    expect(batches[1].status).toBe("reserved");
     expect(await countOf(seedDb, "reservations")).toBeGreaterThan(0);
   });
 
