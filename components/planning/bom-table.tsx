@@ -1,8 +1,10 @@
 // A batch's bill of materials: each line in the user's units, cure with its rounding to the
 // kitchen scale, the lots reserved for it, what the kitchen has available on the production day,
 // and for a line short of stock how much, with where to get it (a transfer or buying). Compact:
-// item, quantity and stock only (the plan sheet after saving). Server-safe.
+// item, quantity and stock only (the plan sheet after saving). Each reserved lot links to its trace.
+// Server-safe.
 import { ArrowLeftRight, CheckCircle2, Lock, ShoppingCart, TriangleAlert } from "lucide-react";
+import Link from "next/link";
 import { CureMarker } from "@/components/cure/cure-marker";
 import { Badge } from "@/components/ui/badge";
 import { DataTable, RowHeader, TBody, Td, Th, THead } from "@/components/ui/data-table";
@@ -64,15 +66,17 @@ function StockCell({ line, batch, q, kitchenNames }: { line: BatchLine; batch: B
 export function BomTable({ batch, units, unitSystem, scaleResolutionG, compact, kitchenNames, untracked = [] }: Props) {
   const q = (line: BatchLine) => (v: string) => quantityText(v, line.item, units, unitSystem);
   const caption = `Bill of materials: ${batch.recipe.code} on ${dayPlain(batch.plannedFor)}`;
+  // a batch made or cancelled holds nothing and needs no stock: its plan is shown without those columns
+  const stockColumns = batch.status === "planned" || batch.status === "reserved";
   return (
     <DataTable caption={caption}>
       <THead>
         <Th>Item</Th>
         {compact ? null : <Th>Role</Th>}
         <Th numeric>Quantity</Th>
-        {compact ? null : <Th>Reserved lots</Th>}
-        {compact ? null : <Th numeric>Available</Th>}
-        <Th>Stock</Th>
+        {compact || !stockColumns ? null : <Th>Reserved lots</Th>}
+        {compact || !stockColumns ? null : <Th numeric>Available</Th>}
+        {stockColumns ? <Th>Stock</Th> : null}
       </THead>
       <TBody>
         {batch.lines.map((l) => {
@@ -96,7 +100,7 @@ export function BomTable({ batch, units, unitSystem, scaleResolutionG, compact, 
                 ) : null}
                 {length ? <span className="block whitespace-nowrap text-sm text-brine">{length}</span> : null}
               </Td>
-              {compact ? null : (
+              {compact || !stockColumns ? null : (
                 <Td className="align-top text-sm">
                   {l.lots.length && untracked.includes(l.item.id) ? (
                     <span className="num">{q(l)(l.reserved)} <span className="text-brine">(not tracked by lot)</span></span>
@@ -104,7 +108,7 @@ export function BomTable({ batch, units, unitSystem, scaleResolutionG, compact, 
                     <ul className="space-y-0.5">
                       {l.lots.map((lot) => (
                         <li key={lot.lotId}>
-                          <span className="font-semibold">{lot.code}</span>
+                          <Link href={`/planning/trace/lots/${lot.lotId}`} className="font-semibold text-paprika underline-offset-2 hover:underline print:text-pepper">{lot.code}</Link>
                           {lot.date ? <span className="text-brine"> · {lot.dateKind ? `${DATE_KIND[lot.dateKind] ?? lot.dateKind} ` : ""}{dayPlain(lot.date)}</span> : null}
                           <span className="num whitespace-nowrap"> · {q(l)(lot.quantity)}</span>
                         </li>
@@ -115,8 +119,8 @@ export function BomTable({ batch, units, unitSystem, scaleResolutionG, compact, 
                   )}
                 </Td>
               )}
-              {compact ? null : <Td numeric className="align-top whitespace-nowrap">{q(l)(l.available)}</Td>}
-              <Td className={`align-top ${compact ? "!px-3" : ""}`}><StockCell line={l} batch={batch} q={q(l)} kitchenNames={kitchenNames} /></Td>
+              {compact || !stockColumns ? null : <Td numeric className="align-top whitespace-nowrap">{q(l)(l.available)}</Td>}
+              {stockColumns ? <Td className={`align-top ${compact ? "!px-3" : ""}`}><StockCell line={l} batch={batch} q={q(l)} kitchenNames={kitchenNames} /></Td> : null}
             </tr>
           );
         })}

@@ -69,3 +69,10 @@ export function weekWord(monday: string, today: string): string | null {
   const diff = Math.round((at(monday).getTime() - at(mondayOf(today)).getTime()) / (7 * 86_400_000));
   return diff === 0 ? "This week" : diff === 1 ? "Next week" : diff === -1 ? "Last week" : null;
 }
+
+/** A moment (ISO timestamp) in a time zone: "8 Dec 2026, 14:05". Explicit parts, so server and browser agree. */
+export function momentText(iso: string, timeZone: string): string {
+  return new Intl.DateTimeFormat("en-GB", {
+    timeZone, day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit", hourCycle: "h23",
+  }).format(new Date(iso));
+}

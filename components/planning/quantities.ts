@@ -56,3 +56,20 @@ export function roundingText(rounding: "exact" | "down" | "up", exact: string, s
   if (rounding === "exact") return `exact, no rounding on the ${scaleResolutionG} g scale`;
   return `rounded ${rounding} to the ${scaleResolutionG} g scale (exact ${plain(dec(exact).toDecimalPlaces(6))} g)`;
 }
+
+/** A signed difference for people: "+0.4 g", "−1.2 kg" (a real minus sign), "0 g" when none. */
+function signed(value: string, text: (abs: string) => string): string {
+  const v = dec(value);
+  const body = text(plain(v.abs()));
+  return v.isZero() ? body : `${v.isNegative() ? "\u2212" : "+"}${body}`;
+}
+
+/** actual - planned of a line, in the item's unit for the user (cure in grams as weighed). */
+export function signedQuantityText(value: string, item: LineItem, units: UnitsById, system: UnitSystem): string {
+  return signed(value, (abs) => quantityText(abs, item, units, system));
+}
+
+/** A signed mass given in grams: "+200 g", "−0.441 lb". */
+export function signedGramsText(grams: string, system: UnitSystem): string {
+  return signed(grams, (abs) => gramsText(abs, system));
+}

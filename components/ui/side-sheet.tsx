@@ -66,7 +66,7 @@ export function SideSheet({ open, onClose, title, description, children }: {
         if (pressedOnBackdrop.current && e.target === e.currentTarget) onClose();
         pressedOnBackdrop.current = false;
       }}
-      className={`fixed inset-y-0 left-auto right-0 m-0 h-full max-h-full w-full max-w-[30rem] border-0 border-l border-salt-edge bg-white p-0 text-pepper shadow-2xl transition-transform duration-200 ease-out backdrop:bg-pepper/40 motion-reduce:transition-none ${
+      className={`fixed inset-y-0 left-auto right-0 !m-0 h-full max-h-full overflow-hidden w-full max-w-[30rem] border-0 border-l border-salt-edge bg-white p-0 text-pepper shadow-2xl transition-transform duration-200 ease-out backdrop:bg-pepper/40 motion-reduce:transition-none ${
         entered ? "translate-x-0" : "translate-x-full"
       }`}
     >

@@ -5,6 +5,7 @@ import { requireUser } from "@/lib/auth/session";
 const TABS: (PlanningTab & { needs: Action })[] = [
   { href: "/planning", label: "Week", needs: "planning.read" },
   { href: "/planning/recipes", label: "Recipes", needs: "planning.read" },
+  { href: "/planning/trace", label: "Traceability", needs: "planning.read" },
   { href: "/planning/cure", label: "Cure calculator", needs: "planning.read" },
   { href: "/planning/casing", label: "Casing calculator", needs: "planning.read" },
 ];

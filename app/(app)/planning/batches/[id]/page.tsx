@@ -1,5 +1,6 @@
 // One batch plan as a sheet a kitchen lead can pin up: what to weigh (cure rounded to the scale),
-// the lots reserved for it, what is short and where to get it, casing to open, and the cure check.
+// the lots reserved for it, what is short and where to get it, casing to open, and the cure check;
+// recording production, and once made: the batch code, variance, the actual cure check and a hold.
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { canSomewhere, can } from "@/lib/auth/permissions";
@@ -8,6 +9,7 @@ import { getBatch } from "@/lib/data/batches";
 import { getCureSettings } from "@/lib/data/companies";
 import { listKitchens } from "@/lib/data/kitchens";
 import { AppError } from "@/lib/http/errors";
+import { todayIn } from "@/components/planning/dates";
 import { itemFacts } from "../../_server/items";
 import { BatchSheet } from "./_components/batch-sheet";
 
@@ -41,6 +43,10 @@ export default async function BatchPage({ params }: { params: Promise<{ id: stri
         scaleResolutionG={settings.scaleResolutionG}
         kitchenNames={Object.fromEntries(kitchens.map((k) => [k.code, k.name]))}
         canManage={can(user, "planning.manage", { kitchenId: batch.kitchen.id })}
+        canProduce={can(user, "production.post", { kitchenId: batch.kitchen.id })}
+        canReleaseHold={can(user, "limits.override", { kitchenId: batch.kitchen.id })}
+        today={todayIn(user.timeZone)}
+        timeZone={user.timeZone}
         printedBy={user.name}
         printedAt={new Intl.DateTimeFormat("en-GB", { timeZone: user.timeZone, dateStyle: "long", timeStyle: "short" }).format(new Date())}
       />
