@@ -13,13 +13,14 @@ import { BomTable } from "@/components/planning/bom-table";
 import { verdictOf } from "@/components/planning/cure-check";
 import { dayFull } from "@/components/planning/dates";
 import { gramsText, metresText, putUpWord, type UnitsById } from "@/components/planning/quantities";
+import { AmountField } from "@/components/ui/amount-field";
 import { describedBy, FieldError, FieldHint, FormMessage } from "@/components/ui/field";
 import { SideSheetFooter } from "@/components/ui/side-sheet";
 import { CLASS_LABELS } from "@/lib/cure/limits";
 import {
   ApiError, newIdempotencyKey, planBatch, recipeQueryOptions, type Batch, type BatchCreateBody, type RecipeSummary,
 } from "@/lib/queries/planning";
-import { dec, isDecimalString, plain, type UnitSystem } from "@/lib/units";
+import { dec, plain, type UnitSystem } from "@/lib/units";
 
 export interface CasingChoice {
   id: string;
@@ -201,7 +202,8 @@ export function PlanBatchForm({ kitchen, today, initialDay, initialRecipe, recip
           ))}
         </div>
         {mode === "meat" ? (
-          <Amount
+          <AmountField
+            checkDecimal
             id={`${id}-meat`}
             label="Meat block (green weight)"
             value={meat}
@@ -217,7 +219,8 @@ export function PlanBatchForm({ kitchen, today, initialDay, initialRecipe, recip
               <input id={`${id}-count`} type="text" inputMode="numeric" className="field-input num" value={count} onChange={(e) => setCount(e.target.value)} autoComplete="off" {...describedBy(`${id}-count`, err("links.count"))} />
               <FieldError id={`${id}-count`} errors={err("links.count")} />
             </div>
-            <Amount
+            <AmountField
+            checkDecimal
               id={`${id}-weight`}
               label="Weight of one link"
               value={weight}
@@ -262,33 +265,6 @@ export function PlanBatchForm({ kitchen, today, initialDay, initialRecipe, recip
   );
 }
 
-function Amount({ id, label, value, units, onChange, errors, hint }: {
-  id: string;
-  label: string;
-  value: { quantity: string; unit: string };
-  units: string[];
-  onChange: (v: { quantity: string; unit: string }) => void;
-  errors?: string[];
-  hint?: string;
-}) {
-  const bad = value.quantity.trim() !== "" && !isDecimalString(value.quantity.trim());
-  const shown = errors ?? (bad ? ["Type the number with a point for decimals, e.g. 12.5."] : undefined);
-  return (
-    <div>
-      <label htmlFor={id} className="field-label">{label}</label>
-      <div className="flex gap-2">
-        <input id={id} type="text" inputMode="decimal" className="field-input num" value={value.quantity} autoComplete="off"
-          onChange={(e) => onChange({ ...value, quantity: e.target.value })} {...describedBy(id, shown, Boolean(hint))} />
-        <label htmlFor={`${id}-unit`} className="sr-only">{label}: unit</label>
-        <select id={`${id}-unit`} className="field-input w-24 shrink-0" value={value.unit} onChange={(e) => onChange({ ...value, unit: e.target.value })}>
-          {units.map((u) => <option key={u} value={u}>{u}</option>)}
-        </select>
-      </div>
-      {hint ? <FieldHint id={id}>{hint}</FieldHint> : null}
-      <FieldError id={id} errors={shown} />
-    </div>
-  );
-}
 
 function Planned({ batch, units, unitSystem, scaleResolutionG, kitchenNames, onClose, onAnother }: {
   batch: Batch;

@@ -5,8 +5,9 @@
 // item's, or the calibre table's lower bound), manufactured ones as a cylinder with a fill factor.
 // This form only gathers the inputs as decimal strings and shows what comes back.
 import { Calculator, Loader2 } from "lucide-react";
-import { useEffect, useId, useRef, useState, type FormEvent, type ReactNode } from "react";
+import { useEffect, useRef, useState, type FormEvent, type ReactNode } from "react";
 import { metresText } from "@/components/planning/quantities";
+import { AmountField } from "@/components/ui/amount-field";
 import { describedBy, FieldError, FieldHint, FormMessage } from "@/components/ui/field";
 import { ApiError, calculateCasing, type CasingCalculation } from "@/lib/queries/planning";
 import { dec, plain, type UnitSystem } from "@/lib/units";
@@ -87,7 +88,7 @@ export function CasingCalculator({ casings, unitSystem }: { casings: CasingOptio
     <div className="max-w-4xl space-y-6">
       <form onSubmit={(e) => void submit(e)} noValidate className="panel space-y-6 px-6 py-6" aria-label="Casing calculation">
         <div className="grid gap-4 md:grid-cols-2">
-          <Amount id="fillingMass" label="Filling mass" value={filling} units={["kg", "g", "lb", "oz"]} onChange={setFilling} errors={err("fillingMass")}
+          <AmountField id="fillingMass" label="Filling mass" value={filling} units={["kg", "g", "lb", "oz"]} onChange={setFilling} errors={err("fillingMass")}
             hint="Everything stuffed: the meat block plus water, salt, cure and spices." />
         </div>
 
@@ -139,7 +140,7 @@ export function CasingCalculator({ casings, unitSystem }: { casings: CasingOptio
           </div>
           {link !== "none" ? (
             <div className="grid gap-4 md:grid-cols-2">
-              <Amount id={`link.${link}`} label={link === "length" ? "Link length" : "Link weight"} value={linkValue} units={link === "length" ? ["cm", "mm", "in"] : ["g", "oz"]}
+              <AmountField id={`link.${link}`} label={link === "length" ? "Link length" : "Link weight"} value={linkValue} units={link === "length" ? ["cm", "mm", "in"] : ["g", "oz"]}
                 onChange={setLinkValue} errors={err(`link.${link}`) ?? err("link")} />
             </div>
           ) : null}
@@ -222,29 +223,3 @@ function Text({ id, label, value, onChange, errors, hint }: { id: string; label:
   );
 }
 
-function Amount({ id, label, value, units, onChange, errors, hint }: {
-  id: string;
-  label: string;
-  value: { quantity: string; unit: string };
-  units: string[];
-  onChange: (v: { quantity: string; unit: string }) => void;
-  errors?: string[];
-  hint?: string;
-}) {
-  const unitId = `${useId()}-unit`;
-  return (
-    <div>
-      <label htmlFor={id} className="field-label">{label}</label>
-      <div className="flex gap-2">
-        <input id={id} type="text" inputMode="decimal" value={value.quantity} onChange={(e) => onChange({ ...value, quantity: e.target.value })}
-          className="field-input num" autoComplete="off" {...describedBy(id, errors, Boolean(hint))} />
-        <label htmlFor={unitId} className="sr-only">{label}: unit</label>
-        <select id={unitId} value={value.unit} onChange={(e) => onChange({ ...value, unit: e.target.value })} className="field-input w-24 shrink-0">
-          {units.map((u) => <option key={u} value={u}>{u}</option>)}
-        </select>
-      </div>
-      {hint ? <FieldHint id={id}>{hint}</FieldHint> : null}
-      <FieldError id={id} errors={errors} />
-    </div>
-  );
-}

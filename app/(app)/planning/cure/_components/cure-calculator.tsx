@@ -4,7 +4,8 @@
 // (POST /api/calculations/cure, lib/cure); this form only gathers the inputs as decimal strings
 // (percentages from the label become exact fractions here) and shows what comes back.
 import { AlertTriangle, CheckCircle2, Info, Loader2, OctagonX, Plus, Trash2 } from "lucide-react";
-import { useEffect, useId, useRef, useState, type FormEvent, type ReactNode } from "react";
+import { useEffect, useRef, useState, type FormEvent, type ReactNode } from "react";
+import { AmountField } from "@/components/ui/amount-field";
 import { describedBy, FieldError, FieldHint, FormMessage } from "@/components/ui/field";
 import { DataTable, RowHeader, TBody, Td, Th, THead } from "@/components/ui/data-table";
 import type { CureCalculation, CureCheck } from "@/lib/cure/calculate";
@@ -191,7 +192,7 @@ export function CureCalculator({ defaultTable, scaleResolutionG, stockCures }: {
         </div>
 
         <div className="grid gap-4 md:grid-cols-2">
-          <Amount id="meatBlock" label="Meat block (green weight)" value={meat} onChange={setMeat} errors={err("meatBlock")}
+          <AmountField units={MASS_UNITS} id="meatBlock" label="Meat block (green weight)" value={meat} onChange={setMeat} errors={err("meatBlock")}
             hint="Meat and fat only: not water, salt, spices or the finished weight." />
           {mode === "inverse" ? (
             <Text id="targetNitritePpm" label="Target ingoing nitrite (ppm)" value={target} onChange={setTarget} errors={err("targetNitritePpm")}
@@ -218,7 +219,7 @@ export function CureCalculator({ defaultTable, scaleResolutionG, stockCures }: {
 
         {usesPickle ? (
           <div className="grid gap-4 md:grid-cols-2">
-            <Amount id="pickle" label="Pickle (brine) weight" value={pickle} onChange={setPickle} errors={err("pickle")}
+            <AmountField units={MASS_UNITS} id="pickle" label="Pickle (brine) weight" value={pickle} onChange={setPickle} errors={err("pickle")}
               hint="The cures above are what is dissolved in this pickle." />
             {method === "pumped" ? (
               <Text id="pumpFraction" label="Pump level (%)" value={pumpPercent} onChange={setPumpPercent} errors={err("pumpFraction")}
@@ -229,7 +230,7 @@ export function CureCalculator({ defaultTable, scaleResolutionG, stockCures }: {
 
         {table === "eu" ? (
           <div className="grid gap-4 md:grid-cols-2">
-            <Amount id="batchMass" label="Whole batch mass" value={batch} onChange={setBatch} errors={err("batchMass")}
+            <AmountField units={MASS_UNITS} id="batchMass" label="Whole batch mass" value={batch} onChange={setBatch} errors={err("batchMass")}
               hint="EU figures are per kg of the whole batch: meat and everything added." />
             <Select id="heatTreatment" label="Heat treatment" value={heat} onChange={(v) => setHeat(v as HeatTreatment)} errors={err("heatTreatment")}
               options={Object.entries(HEAT_WORDS)} />
@@ -288,7 +289,7 @@ function CureLineFields({ row, index, inverse, stockCures, errors, onChange, onR
       </div>
       <div className="mt-4 grid gap-4 md:grid-cols-3">
         {inverse ? null : (
-          <Amount id={`${p}.quantity`} label={`Cure ${n}: quantity`} value={{ quantity: row.quantity, unit: row.unit }}
+          <AmountField units={MASS_UNITS} id={`${p}.quantity`} label={`Cure ${n}: quantity`} value={{ quantity: row.quantity, unit: row.unit }}
             onChange={(v) => onChange({ quantity: v.quantity, unit: v.unit })} errors={[...(e("quantity") ?? []), ...(e("unit") ?? [])]} />
         )}
         <Text id={`${p}.nitriteFraction`} label={`Cure ${n}: nitrite (%)`} value={row.nitritePercent} onChange={(v) => onChange({ nitritePercent: v })}
@@ -483,28 +484,3 @@ function Text({ id, label, value, onChange, errors, hint, className, decimal = t
   );
 }
 
-function Amount({ id, label, value, onChange, errors, hint }: {
-  id: string;
-  label: string;
-  value: { quantity: string; unit: string };
-  onChange: (v: { quantity: string; unit: string }) => void;
-  errors?: string[];
-  hint?: string;
-}) {
-  const unitId = `${useId()}-unit`;
-  return (
-    <div>
-      <label htmlFor={id} className="field-label">{label}</label>
-      <div className="flex gap-2">
-        <input id={id} type="text" inputMode="decimal" value={value.quantity} onChange={(e) => onChange({ ...value, quantity: e.target.value })}
-          className="field-input num" autoComplete="off" {...describedBy(id, errors, Boolean(hint))} />
-        <label htmlFor={unitId} className="sr-only">{label}: unit</label>
-        <select id={unitId} value={value.unit} onChange={(e) => onChange({ ...value, unit: e.target.value })} className="field-input w-24 shrink-0">
-          {MASS_UNITS.map((u) => <option key={u} value={u}>{u}</option>)}
-        </select>
-      </div>
-      {hint ? <FieldHint id={id}>{hint}</FieldHint> : null}
-      <FieldError id={id} errors={errors} />
-    </div>
-  );
-}
