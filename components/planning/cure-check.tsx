@@ -9,9 +9,10 @@ import { DataTable, RowHeader, TBody, Td, Th, THead } from "@/components/ui/data
 import type { CureCalculation, CureCheck } from "@/lib/cure/calculate";
 import { TABLE_LABELS } from "@/lib/cure/limits";
 
-const KIND_WORDS: Record<CureCheck["kind"], string> = { max: "Maximum", min: "Minimum", target: "Required level" };
+export const KIND_WORDS: Record<CureCheck["kind"], string> = { max: "Maximum", min: "Minimum", target: "Required level" };
 
-function deviationWords(d: string): string {
+/** "+0.0000" -> "at the limit", "-31.2500" -> "31.2500 below", "+5.0000" -> "5.0000 above" */
+export function deviationWords(d: string): string {
   if (/^[+-]0\.0000$/.test(d)) return "at the limit";
   return d.startsWith("-") ? `${d.slice(1)} below` : `${d.replace(/^\+/, "")} above`;
 }
@@ -27,7 +28,8 @@ export function verdictOf(cure: CureCalculation): { tone: string; icon: ReactNod
   return { tone: "border-herb/40 bg-herb-soft text-herb", icon: <CheckCircle2 aria-hidden className="h-5 w-5 shrink-0" />, text: "Within every check." };
 }
 
-function Verdict({ check: c }: { check: CureCheck }) {
+/** One check's verdict in words and an icon (not colour alone). */
+export function CheckVerdict({ check: c }: { check: CureCheck }) {
   if (c.within) return <Badge tone="herb" icon={<CheckCircle2 />}>Within</Badge>;
   if (c.severity === "block") return <Badge tone="ember" icon={<OctagonX />}>Over: blocked</Badge>;
   if (c.groupMet) return <Badge icon={<Info />}>Alternative met</Badge>;
@@ -79,7 +81,7 @@ export function CureCheckPanel({ cure, basis, headingId, heading = "Cure check" 
                   {c.ppm}
                   <span className="block text-sm text-brine">{deviationWords(c.deviationPpm)}</span>
                 </Td>
-                <Td><Verdict check={c} /></Td>
+                <Td><CheckVerdict check={c} /></Td>
               </tr>
             ))}
           </TBody>

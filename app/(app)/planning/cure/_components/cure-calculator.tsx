@@ -5,6 +5,7 @@
 // (percentages from the label become exact fractions here) and shows what comes back.
 import { AlertTriangle, CheckCircle2, Info, Loader2, OctagonX, Plus, Trash2 } from "lucide-react";
 import { useEffect, useRef, useState, type FormEvent, type ReactNode } from "react";
+import { CheckVerdict, deviationWords, KIND_WORDS } from "@/components/planning/cure-check";
 import { AmountField } from "@/components/ui/amount-field";
 import { describedBy, FieldError, FieldHint, FormMessage } from "@/components/ui/field";
 import { DataTable, RowHeader, TBody, Td, Th, THead } from "@/components/ui/data-table";
@@ -37,7 +38,6 @@ interface CureRow {
 }
 
 const MASS_UNITS = ["g", "kg", "oz", "lb"] as const;
-const KIND_WORDS: Record<CureCheck["kind"], string> = { max: "Maximum", min: "Minimum", target: "Required level" };
 const HEAT_WORDS: Record<HeatTreatment, string> = {
   not_heat_treated: "Not heat treated (08.3.1)",
   heat_treated: "Heat treated (08.3.2)",
@@ -312,12 +312,6 @@ function CureLineFields({ row, index, inverse, stockCures, errors, onChange, onR
   );
 }
 
-/** "+0.0000" -> "at the limit", "-31.2500" -> "31.2500 below", "+5.0000" -> "5.0000 above" */
-function deviationWords(d: string): string {
-  if (/^[+-]0\.0000$/.test(d)) return "at the limit";
-  return d.startsWith("-") ? `${d.slice(1)} below` : `${d.replace(/^\+/, "")} above`;
-}
-
 function Result({ result }: { result: CureCalculation }) {
   const heading = useRef<HTMLHeadingElement>(null);
   // a new answer is read from its heading: scrolled into view and focused
@@ -390,7 +384,7 @@ function Result({ result }: { result: CureCalculation }) {
                   {c.ppm}
                   <span className="block text-sm text-brine">{deviationWords(c.deviationPpm)}</span>
                 </Td>
-                <Td><Verdict check={c} /></Td>
+                <Td><CheckVerdict check={c} /></Td>
               </tr>
             ))}
           </TBody>
@@ -418,20 +412,6 @@ function Result({ result }: { result: CureCalculation }) {
       ) : null}
     </div>
   );
-}
-
-function Verdict({ check: c }: { check: CureCheck }) {
-  const badge = (tone: string, icon: ReactNode, text: string) => (
-    <span className={`inline-flex items-center gap-1 whitespace-nowrap rounded-full border px-2.5 py-0.5 text-sm font-semibold ${tone}`}>
-      <span aria-hidden className="[&>svg]:h-3.5 [&>svg]:w-3.5">{icon}</span>
-      {text}
-    </span>
-  );
-  if (c.within) return badge("border-herb/25 bg-herb-soft text-herb", <CheckCircle2 />, "Within");
-  if (c.severity === "block") return badge("border-ember/25 bg-ember-soft text-ember", <OctagonX />, "Over: blocked");
-  if (c.groupMet) return badge("border-brine-line bg-brine-soft text-pepper-soft", <Info />, "Alternative met");
-  const word = c.kind === "min" ? "Under" : c.kind === "max" ? "Over" : "Off the level";
-  return badge("border-amber/25 bg-amber-soft text-amber", <AlertTriangle />, `${word}: warning`);
 }
 
 function Figure({ label, children }: { label: string; children: ReactNode }) {
