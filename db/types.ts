@@ -81,6 +81,15 @@ export interface OutboxEmailRow {
   sent_at: Date | null;
 }
 
+export interface OutboxAttachmentRow {
+  id: string;
+  outbox_email_id: string;
+  position: number;
+  filename: string;
+  content_type: string;
+  content: Buffer;
+}
+
 export interface IdempotencyKeyRow {
   company_id: string;
   user_id: string;

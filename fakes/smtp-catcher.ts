@@ -7,7 +7,7 @@ import { SMTPServer } from "smtp-server";
 import { simpleParser } from "mailparser";
 import { mkdirSync, renameSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
-import { randomUUID } from "node:crypto";
+import { createHash, randomUUID } from "node:crypto";
 
 export const COMPANY_HEADER = "x-hanklot-company";
 
@@ -31,6 +31,14 @@ const server = new SMTPServer({
       if (closed.has(session.id)) return callback(new Error("sender went away"));
       const name = `${Date.now()}-${randomUUID()}.json`;
       const company = m.headers.get(COMPANY_HEADER);
+      // attachments beside the message: <name>.files/<n>-<filename>, listed with their size and sha256
+      const files = m.attachments.map((a, i) => {
+        const folder = `${name.replace(/\.json$/, "")}.files`;
+        mkdirSync(join(dir, folder), { recursive: true });
+        const file = join(folder, `${i + 1}-${(a.filename ?? "attachment").replace(/[^\w.-]+/g, "_")}`);
+        writeFileSync(join(dir, file), a.content);
+        return { filename: a.filename ?? null, contentType: a.contentType, size: a.content.length, sha256: createHash("sha256").update(a.content).digest("hex"), file };
+      });
       // write then rename, so a reader never sees half a file
       writeFileSync(join(dir, `.${name}.tmp`), JSON.stringify({
         from: m.from?.text,
@@ -38,7 +46,7 @@ const server = new SMTPServer({
         subject: m.subject,
         text: m.text,
         html: m.html || null,
-        attachments: m.attachments.map((a) => a.filename),
+        attachments: files,
         companyId: typeof company === "string" ? company : null,
         receivedAt: new Date().toISOString(),
       }, null, 2));

@@ -4,7 +4,7 @@ import type { Knex } from "knex";
 import type { Transporter } from "nodemailer";
 import { UnrecoverableError } from "bullmq";
 import { z } from "zod";
-import type { OutboxEmailRow } from "../../db/types";
+import type { OutboxAttachmentRow, OutboxEmailRow } from "../../db/types";
 
 export const sendEmailPayload = z.object({ outboxId: z.uuid() });
 export const COMPANY_HEADER = "X-HankLot-Company";
@@ -20,6 +20,7 @@ export async function sendOutboxEmail(
   const outcome = await knex.transaction(async (trx) => {
     const row: OutboxEmailRow | undefined = await trx("outbox_emails").where({ id: parsed.data.outboxId }).forUpdate().skipLocked().first();
     if (!row || row.status !== "pending") return "already-done" as const;
+    const attachments: OutboxAttachmentRow[] = await trx("outbox_email_attachments").where({ outbox_email_id: row.id }).orderBy("position");
     try {
       await transport.sendMail({
         from,
@@ -27,6 +28,7 @@ export async function sendOutboxEmail(
         subject: row.subject,
         text: row.text_body,
         ...(row.html_body ? { html: row.html_body } : {}),
+        ...(attachments.length ? { attachments: attachments.map((a) => ({ filename: a.filename, contentType: a.content_type, content: a.content })) } : {}),
         headers: row.company_id ? { [COMPANY_HEADER]: row.company_id } : {},
       });
     } catch (e) {

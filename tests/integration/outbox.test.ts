@@ -6,6 +6,10 @@ import type { OutboxEmailRow } from "../../db/types";
 import { COMPANY_HEADER, pendingOutboxIds, sendOutboxEmail } from "../../jobs/definitions/send-email";
 import { createCompany, tag, uniqueEmail, type TestCompany } from "../support/factory";
 import { listMail, waitForMail } from "../support/mail";
+import { addToOutbox } from "../../lib/data/outbox";
+import { createHash } from "node:crypto";
+import { readFile } from "node:fs/promises";
+import { join } from "node:path";
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 const FROM = "Hank & Lot <no-reply@hankandlot.test>";
@@ -105,6 +109,30 @@ describe("sendOutboxEmail", () => {
 
   it("an unknown id is already done", async () => {
     expect(await sendOutboxEmail(db(), transport, FROM, { outboxId: crypto.randomUUID() })).toBe("already-done");
+  });
+});
+
+describe("attachments", () => {
+  it("are written with the e-mail and arrive at the catcher byte for byte, in order", async () => {
+    const to = uniqueEmail("attach");
+    const subject = `Order with files ${tag()}`;
+    const pdf = Uint8Array.from([0x25, 0x50, 0x44, 0x46, 0x2d, 0x31, 0x2e, 0x37, 0x0a, 0x00, 0xff, 0x80]); // "%PDF-1.7\n" and bytes that are not text
+    const csv = new TextEncoder().encode("order_number,line\r\nPO-1,1\r\n");
+    const id = await db().transaction(async (trx) => {
+      const id = await addToOutbox(trx, { companyId: co.company.id, to: [to], subject, text: "Attached.", attachments: [
+        { filename: "PO-1.pdf", contentType: "application/pdf", content: pdf },
+        { filename: "PO-1.csv", contentType: "text/csv", content: csv },
+      ] });
+      await trx("outbox_emails").where({ id }).update({ created_at: trx.raw("now() + interval '1 hour'") }); // ours to send, not the sweep's
+      return id;
+    });
+    expect(await sendOutboxEmail(db(), transport, FROM, { outboxId: id })).toBe("sent");
+    const mail = await waitForMail({ to, subjectIncludes: subject });
+    expect(mail.attachments.map((a) => [a.filename, a.contentType, a.size])).toEqual([["PO-1.pdf", "application/pdf", pdf.length], ["PO-1.csv", "text/csv", csv.length]]);
+    const sha = (b: Uint8Array) => createHash("sha256").update(b).digest("hex");
+    expect(mail.attachments[0]!.sha256).toBe(sha(pdf));
+    expect(Buffer.from(await readFile(join(process.env.MAIL_DIR!, mail.attachments[0]!.file))).equals(Buffer.from(pdf))).toBe(true);
+    expect(mail.attachments[1]!.sha256).toBe(sha(csv));
   });
 });
 

@@ -13,6 +13,8 @@ export interface CaughtMail {
   html: string | null;
   companyId: string | null;
   receivedAt: string;
+  /** files sent with the message; `file` is relative to MAIL_DIR */
+  attachments: { filename: string | null; contentType: string; size: number; sha256: string; file: string }[];
 }
 
 export interface MailFilter {
