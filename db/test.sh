@@ -21,6 +21,7 @@ if has e2e; then bash db/system.sh --with-browser; else bash db/system.sh; fi
 export PORT="${TEST_PORT:-3100}" PGPORT="${TEST_PGPORT:-54339}" REDIS_PORT="${TEST_REDIS_PORT:-6392}" SMTP_PORT="${TEST_SMTP_PORT:-2536}"
 T="${TEST_STATE:-.pgtest}"   # state folder of this run (parallel runs need their own)
 export PG_STATE="$T" PG_FAST=1 DB_NAME=hl_test REDIS_DIR="$T/redis" MAIL_DIR="$ROOT/$T/mail"
+export HL_STATE="$T"   # the state folder for lib/env (uploads land in $T/uploads and go with it)
 export SMTP_HOST=127.0.0.1 APP_URL="http://127.0.0.1:$PORT" NEXT_TELEMETRY_DISABLED=1 OUTBOX_SWEEP_MS=1000
 
 pids=()

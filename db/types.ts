@@ -9,6 +9,10 @@ export interface CompanyRow {
   name: string;
   time_zone: string;
   currency: string;
+  /** the first day of the planning week */
+  week_start: "monday" | "sunday" | "saturday";
+  /** NUMERIC(20,4), the company's currency: buyers approve purchase orders up to it */
+  approval_threshold: string;
   created_at: Date;
 }
 
@@ -197,4 +201,56 @@ export interface StockMovementRow {
   recorded_at: Date;
   /** production: the batch the stock was used for */
   batch_id: string | null;
+}
+
+export interface SupplierRow {
+  id: string;
+  company_id: string;
+  name: string;
+  contact_name: string;
+  order_email: string | null;
+  phone: string;
+  lead_time_days: number;
+  /** NUMERIC(20,4), the company's currency; null: no minimum */
+  min_order_value: string | null;
+  notes: string;
+  active: boolean;
+  created_at: Date;
+  updated_at: Date;
+}
+
+export interface SupplierItemRow {
+  id: string;
+  company_id: string;
+  supplier_id: string;
+  /** our stock item */
+  item_id: string;
+  /** the supplier's code */
+  sku: string;
+  description: string;
+  pack_label: string;
+  /** the pack as entered: pack_quantity of pack_unit */
+  pack_quantity: string;
+  pack_unit: string;
+  /** one pack in the item's stock unit, NUMERIC(30,12) */
+  pack_size_stock: string;
+  /** GTIN-8/12/13/14 padded to 14 digits */
+  gtin14: string | null;
+  active: boolean;
+  created_at: Date;
+  updated_at: Date;
+}
+
+export interface UploadRow {
+  id: string;
+  company_id: string;
+  /** price_list | delivery_note (lib/uploads/kinds.ts) */
+  kind: string;
+  sha256: string;
+  /** BIGINT: a string from pg */
+  size: string;
+  filename: string;
+  media_type: string;
+  created_by: string | null;
+  created_at: Date;
 }

@@ -1,6 +1,8 @@
 // Server configuration, read and validated once.
 // env: DATABASE_URL, REDIS_URL, SMTP_HOST, SMTP_PORT, MAIL_FROM, APP_URL, PORT,
-//      MAIL_DIR (set when the local mail catcher is in use: enables the captured-mail page)
+//      MAIL_DIR (set when the local mail catcher is in use: enables the captured-mail page),
+//      HL_STATE (.data: the runtime state folder; uploads go to <HL_STATE>/uploads),
+//      UPLOAD_DIR (overrides where uploads go)
 import { z } from "zod";
 
 const schema = z.object({
@@ -12,6 +14,8 @@ const schema = z.object({
   PORT: z.coerce.number().int().positive().default(3000),
   APP_URL: z.string().optional(),
   MAIL_DIR: z.string().optional(),
+  HL_STATE: z.string().default(".data"),
+  UPLOAD_DIR: z.string().optional(),
 });
 
 export type Env = z.infer<typeof schema> & { APP_URL: string };

@@ -2,9 +2,11 @@
 // kitchen scale, the lots reserved for it, what the kitchen has available on the production day,
 // and for a line short of stock how much, with where to get it (a transfer or buying). Compact:
 // item, quantity and stock only (the plan sheet after saving). Each reserved lot links to its trace.
+// The batch sheet adds, beside each transfer suggestion, the way to ask for it (`transferAction`).
 // Server-safe.
 import { ArrowLeftRight, CheckCircle2, Lock, ShoppingCart, TriangleAlert } from "lucide-react";
 import Link from "next/link";
+import type { ReactNode } from "react";
 import { CureMarker } from "@/components/cure/cure-marker";
 import { Badge } from "@/components/ui/badge";
 import { DataTable, RowHeader, TBody, Td, Th, THead } from "@/components/ui/data-table";
@@ -18,6 +20,8 @@ const ROLE_WORDS: Record<BatchLine["role"], string> = { cure: "Cure", ingredient
 const roleWord = (l: BatchLine) => (l.role === "ingredient" && l.item.category === "spice" ? "Spice" : ROLE_WORDS[l.role]);
 const DATE_KIND: Record<string, string> = { use_by: "use by", best_before: "best before" };
 
+export type TransferSuggestion = Extract<BatchLine["suggestions"][number], { kind: "transfer" }>;
+
 interface Props {
   batch: Batch;
   units: UnitsById;
@@ -28,9 +32,13 @@ interface Props {
   kitchenNames?: Readonly<Record<string, string>>;
   /** items not tracked by lot: what is reserved is shown, not the lots it sits in */
   untracked?: readonly string[];
+  /** shown under a transfer suggestion: asking for it, or that it was asked */
+  transferAction?: (line: BatchLine, suggestion: TransferSuggestion) => ReactNode;
 }
 
-function StockCell({ line, batch, q, kitchenNames }: { line: BatchLine; batch: Batch; q: (v: string) => string; kitchenNames?: Readonly<Record<string, string>> }) {
+function StockCell({ line, batch, q, kitchenNames, transferAction }: {
+  line: BatchLine; batch: Batch; q: (v: string) => string; kitchenNames?: Readonly<Record<string, string>>; transferAction?: Props["transferAction"];
+}) {
   const open = batch.status === "planned" || batch.status === "reserved";
   const fullyReserved = dec(line.reserved).gte(dec(line.quantity));
   if (fullyReserved) return <Badge tone="herb" icon={<Lock />}>Reserved</Badge>;
@@ -43,9 +51,12 @@ function StockCell({ line, batch, q, kitchenNames }: { line: BatchLine; batch: B
           <ul className="space-y-0.5 text-sm text-pepper-soft" aria-label={`Where to get ${line.item.sku}`}>
             {line.suggestions.map((s, i) =>
               s.kind === "transfer" ? (
-                <li key={i} className="flex items-start gap-1">
-                  <ArrowLeftRight aria-hidden className="mt-0.5 h-3.5 w-3.5 shrink-0" />
-                  <span>Transfer <span className="num">{q(s.quantity)}</span> from {kitchenNames?.[s.kitchen.code] ? `${kitchenNames[s.kitchen.code]} (${s.kitchen.code})` : s.kitchen.code}</span>
+                <li key={i}>
+                  <span className="flex items-start gap-1">
+                    <ArrowLeftRight aria-hidden className="mt-0.5 h-3.5 w-3.5 shrink-0" />
+                    <span>Transfer <span className="num">{q(s.quantity)}</span> from {kitchenNames?.[s.kitchen.code] ? `${kitchenNames[s.kitchen.code]} (${s.kitchen.code})` : s.kitchen.code}</span>
+                  </span>
+                  {transferAction ? transferAction(line, s) : null}
                 </li>
               ) : (
                 <li key={i} className="flex items-start gap-1">
@@ -63,7 +74,7 @@ function StockCell({ line, batch, q, kitchenNames }: { line: BatchLine; batch: B
   return <Badge tone="herb" icon={<CheckCircle2 />}>Enough</Badge>;
 }
 
-export function BomTable({ batch, units, unitSystem, scaleResolutionG, compact, kitchenNames, untracked = [] }: Props) {
+export function BomTable({ batch, units, unitSystem, scaleResolutionG, compact, kitchenNames, untracked = [], transferAction }: Props) {
   const q = (line: BatchLine) => (v: string) => quantityText(v, line.item, units, unitSystem);
   const caption = `Bill of materials: ${batch.recipe.code} on ${dayPlain(batch.plannedFor)}`;
   // a batch made or cancelled holds nothing and needs no stock: its plan is shown without those columns
@@ -120,7 +131,7 @@ export function BomTable({ batch, units, unitSystem, scaleResolutionG, compact, 
                 </Td>
               )}
               {compact || !stockColumns ? null : <Td numeric className="align-top whitespace-nowrap">{q(l)(l.available)}</Td>}
-              {stockColumns ? <Td className={`align-top ${compact ? "!px-3" : ""}`}><StockCell line={l} batch={batch} q={q(l)} kitchenNames={kitchenNames} /></Td> : null}
+              {stockColumns ? <Td className={`align-top ${compact ? "!px-3" : ""}`}><StockCell line={l} batch={batch} q={q(l)} kitchenNames={kitchenNames} transferAction={transferAction} /></Td> : null}
             </tr>
           );
         })}

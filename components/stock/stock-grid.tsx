@@ -53,6 +53,7 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { FormMessage } from "@/components/ui/field";
 import type { ItemCategory } from "@/db/types";
 import { ApiError, newIdempotencyKey, postCount, putStockLevel, stockQueryOptions } from "@/lib/queries/stock";
+import { neutraliseFormula } from "@/lib/csv";
 import { dec, type UnitSystem } from "@/lib/units";
 import { HistorySheet, type HistoryTarget } from "./history-sheet";
 import { RowActionsMenu, menuId, type RowMenuItem, type RowMenuState } from "./row-actions-menu";
@@ -532,8 +533,7 @@ function csvCell(p: ProcessCellForExportParams<GridRow>): string {
     v = entry ? entryAsStored(entry) : v;
   }
   if (v === null || v === undefined) return "";
-  const s = String(v);
-  return /^[=+\-@\t\r]/.test(s) && !/^-?\d/.test(s) ? `'${s}` : s;
+  return neutraliseFormula(String(v));
 }
 
 // ---------------------------------------------------------------------------------------------

@@ -9,6 +9,11 @@
 //   is posted again (an advisory lock makes two loaders at once post once).
 // - Then its demo recipes and next week's batch plans (db/seeds/demo-recipes.ts), when it has stock
 //   and no recipe yet, under a lock of their own.
+// - Then its demo suppliers and their items (db/seeds/demo-suppliers.ts), when it has items and no
+//   supplier yet (so a database made before suppliers existed gets them too), under a lock of their
+//   own; the demo lots received from them are linked to them.
+// - Then its demo purchase orders (db/seeds/demo-orders.ts: one sent, one approved, one draft
+//   waiting for a manager), when it has suppliers and no purchase order yet, under a lock of their own.
 // The stock posts through lib/data, which needs the react-server condition:
 //   node --conditions=react-server --import tsx db/seeds/load-demo.ts   load what is missing
 //   node --import tsx db/seeds/load-demo.ts --print-sign-ins            print the demo sign-ins and exit
@@ -19,6 +24,8 @@ import { closeDb, db } from "../client";
 import { hashPassword } from "../../lib/auth/password";
 import { DEMO_COMPANIES, DEMO_PASSWORD } from "./demo-data";
 import type { DemoStockSummary } from "./demo-stock";
+import type { DemoSuppliersSummary } from "./demo-suppliers";
+import type { DemoOrdersSummary } from "./demo-orders";
 
 export interface DemoLoad {
   /** The demo companies were created (the database had no company). */
@@ -27,17 +34,27 @@ export interface DemoLoad {
   recipes: { recipes: number; batches: number } | null;
   /** The demo stock posted by this run; null when none was (already there, or no demo company). */
   stock: DemoStockSummary | null;
+  /** The demo suppliers written by this run; null when none were (already there, or no items). */
+  suppliers: DemoSuppliersSummary | null;
+  /** The demo purchase orders written by this run; null when none were (already there, or no suppliers). */
+  orders: DemoOrdersSummary | null;
 }
 
 /** Held while the demo stock is checked and posted, so concurrent loaders post it once. */
 const STOCK_LOCK_SQL = "select pg_advisory_xact_lock(hashtext('hank-and-lot: demo stock'))";
 /** The same for the demo recipes and plans. */
 const RECIPES_LOCK_SQL = "select pg_advisory_xact_lock(hashtext('hank-and-lot: demo recipes'))";
+/** The same for the demo suppliers. */
+const SUPPLIERS_LOCK_SQL = "select pg_advisory_xact_lock(hashtext('hank-and-lot: demo suppliers'))";
+/** The same for the demo purchase orders. */
+const ORDERS_LOCK_SQL = "select pg_advisory_xact_lock(hashtext('hank-and-lot: demo purchase orders'))";
 
 export async function loadDemo(knex: Knex): Promise<DemoLoad> {
   // Imported here, before anything is written, so that --print-sign-ins needs no react-server
   // condition and a run without it fails with nothing loaded.
   const { loadDemoRecipes } = await import("./demo-recipes");
+  const { loadDemoSuppliers } = await import("./demo-suppliers");
+  const { loadDemoOrders } = await import("./demo-orders");
   const { loadDemoStock, demoStockBlockers } = await import("./demo-stock").catch((e: unknown) => {
     throw new Error("The demo stock posts through lib/data: run with `node --conditions=react-server --import tsx`.", { cause: e });
   });
@@ -78,7 +95,29 @@ export async function loadDemo(knex: Knex): Promise<DemoLoad> {
     return loadDemoRecipes(knex, company.id, today);
   });
   if (recipes) console.log(`[hank&lot] demo recipes for ${DEMO_COMPANIES[0]!.name}: ${recipes.recipes} recipes, ${recipes.batches} batches planned`);
-  return { companies, stock, recipes };
+  // suppliers and their items, when the demo company has items but no supplier yet
+  const suppliers = await knex.transaction(async (trx) => {
+    await trx.raw(SUPPLIERS_LOCK_SQL);
+    const company = await findDemoCompany(trx);
+    if (!company) return null;
+    if (!(await trx("items").where({ company_id: company.id }).first("id"))) return null;
+    if (await trx("suppliers").where({ company_id: company.id }).first("id")) return null;
+    return loadDemoSuppliers(knex, company.id);
+  });
+  if (suppliers) console.log(`[hank&lot] demo suppliers for ${DEMO_COMPANIES[0]!.name}: ${suppliers.suppliers} suppliers, ${suppliers.items} supplier items, ${suppliers.lots} lots linked`);
+  // purchase orders, when the demo company has suppliers but no order yet
+  const orders = await knex.transaction(async (trx) => {
+    await trx.raw(ORDERS_LOCK_SQL);
+    const company = await findDemoCompany(trx);
+    if (!company) return null;
+    if (!(await trx("suppliers").where({ company_id: company.id }).first("id"))) return null;
+    if (await trx("purchase_orders").where({ company_id: company.id }).first("id")) return null;
+    const { time_zone } = await trx("companies").where({ id: company.id }).first("time_zone");
+    const today = new Intl.DateTimeFormat("en-CA", { timeZone: time_zone, year: "numeric", month: "2-digit", day: "2-digit" }).format(new Date());
+    return loadDemoOrders(knex, company.id, today);
+  });
+  if (orders) console.log(`[hank&lot] demo purchase orders for ${DEMO_COMPANIES[0]!.name}: ${orders.orders} orders, ${orders.sent} sent`);
+  return { companies, stock, recipes, suppliers, orders };
 }
 
 /** The demo companies, their kitchens and users, into a database that has no company at all. */
@@ -132,6 +171,8 @@ if (import.meta.url === `file://${process.argv[1]}`) {
       loaded.companies ? "[hank&lot] demo companies loaded"
         : loaded.stock ? "[hank&lot] database already has companies; demo stock loaded into the demo company"
           : loaded.recipes ? "[hank&lot] database already has companies; demo recipes loaded into the demo company"
+          : loaded.suppliers ? "[hank&lot] database already has companies; demo suppliers loaded into the demo company"
+          : loaded.orders ? "[hank&lot] database already has companies; demo purchase orders loaded into the demo company"
           : "[hank&lot] database already has data; nothing to load",
     );
     await closeDb();

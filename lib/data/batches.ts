@@ -49,6 +49,8 @@ export interface BatchLine {
   /** what this batch would lack once the batches ahead have taken theirs; null when nothing is short */
   short: string | null;
   suggestions: ({ kind: "transfer"; kitchen: { id: string; code: string }; quantity: string } | { kind: "buy"; quantity: string })[];
+  /** transfer requests asked for this batch and item that are still open (one at most: see transfer-requests.ts) */
+  openRequests: { id: string; fromKitchen: { id: string; code: string }; quantity: string; requestedAt: string }[];
 }
 
 export interface Batch {
@@ -384,6 +386,9 @@ async function describeBatches(k: Knex | Knex.Transaction, actor: CurrentUser, r
     ? await k("stock_levels").where({ company_id: actor.companyId }).whereIn("item_id", itemIds).select("kitchen_id", "item_id", "par_level")
     : [];
   const parOf = new Map(pars.map((p) => [`${p.kitchen_id}:${p.item_id}`, dec(p.par_level ?? "0")]));
+  const requests: { id: string; batch_id: string; item_id: string; from_kitchen_id: string; quantity: string; requested_at: Date }[] = await k("transfer_requests")
+    .where({ company_id: actor.companyId, status: "open" }).whereIn("batch_id", ids).orderBy("requested_at")
+    .select("id", "batch_id", "item_id", "from_kitchen_id", "quantity", "requested_at");
 
   return rows.map((b) => {
     const kitchen = kitchens.find((kk) => kk.id === b.kitchen_id)!;
@@ -419,6 +424,10 @@ async function describeBatches(k: Knex | Knex.Transaction, actor: CurrentUser, r
         quantity: plain(dec(l.quantity)), exactQuantity: plain(dec(l.exact_quantity)), rounding: l.rounding, reserved: plain(reserved),
         lots: lots.map((r) => ({ lotId: r.lot_id, code: r.code, date: r.date, dateKind: r.date_kind, quantity: plain(dec(r.quantity)) })),
         available: plain(here), plannedBefore: plain(ahead), short: short ? plain(short) : null, suggestions,
+        openRequests: requests.filter((r) => r.batch_id === b.id && r.item_id === l.item_id).map((r) => ({
+          id: r.id, fromKitchen: { id: r.from_kitchen_id, code: kitchens.find((kk) => kk.id === r.from_kitchen_id)?.code ?? "" },
+          quantity: plain(dec(r.quantity)), requestedAt: r.requested_at.toISOString(),
+        })),
       };
     });
     const fillingG = batchLines.filter((l) => l.role !== "casing" && l.item.unit === "g").reduce((s, l) => s.plus(dec(l.exactQuantity)), dec(b.meat_block_g));
@@ -516,8 +525,11 @@ export async function listBatches(actor: CurrentUser, opts: { kitchen?: string; 
 
 interface Shortfall { position: number; sku: string; needed: string; available: string; unit: string }
 
-/** Reserves what a batch still lacks, in its own transaction; returns the lines short (nothing reserved then). */
-async function reserveIn(trx: Knex.Transaction, actor: CurrentUser, batch: BatchRow): Promise<Shortfall[]> {
+/**
+ * Reserves what a batch still lacks, in its own transaction: the lines short (nothing reserved then),
+ * and whether anything was held now (false: every line was already held in full).
+ */
+async function reserveIn(trx: Knex.Transaction, actor: CurrentUser, batch: BatchRow): Promise<{ short: Shortfall[]; held: boolean }> {
   const lines: { id: string; position: number; item_id: string; quantity: string; sku: string; stock_unit: string; reserved: string }[] = await trx("batch_lines as bl")
     .join("items as i", "i.id", "bl.item_id")
     .where("bl.batch_id", batch.id)
@@ -546,7 +558,7 @@ async function reserveIn(trx: Knex.Transaction, actor: CurrentUser, batch: Batch
     }
     if (need.gt(0)) short.push({ position: line.position, sku: line.sku, needed: plain(wanted), available: plain(wanted.minus(need)), unit: line.stock_unit });
   }
-  if (short.length) return short;
+  if (short.length) return { short, held: false };
   if (plan.length) {
     // one statement for the balances (summed per lot: two lines may draw the same lot), one for the reservations
     const perLot = new Map<string, Dec>();
@@ -567,7 +579,7 @@ async function reserveIn(trx: Knex.Transaction, actor: CurrentUser, batch: Batch
     );
   }
   await trx("batches").where({ id: batch.id }).update({ status: "reserved", updated_at: trx.fn.now() });
-  return [];
+  return { short: [], held: plan.length > 0 };
 }
 
 async function lockBatch(trx: Knex.Transaction, actor: CurrentUser, id: string, action: "planning.manage" | "planning.read"): Promise<BatchRow> {
@@ -586,33 +598,69 @@ export async function reserveBatch(actor: CurrentUser, id: string): Promise<Batc
   await inTransaction(async (trx) => {
     const batch = await lockBatch(trx, actor, id, "planning.manage");
     if (batch.status !== "planned" && batch.status !== "reserved") throw conflict(`This batch is ${batch.status}: only a planned batch can be reserved.`);
-    const short = await reserveIn(trx, actor, batch);
+    const { short } = await reserveIn(trx, actor, batch);
     if (short.length) throw shortageError(short);
   });
   return getBatch(actor, id);
 }
 
-/** Reserves every planned batch of a kitchen in a date range; each batch all or nothing. */
-export async function reserveAll(actor: CurrentUser, input: { kitchen: string; from: string; to: string }) {
+/**
+ * What reserve-all did with one batch: `reserved` (stock held now), `already_reserved` (every line was
+ * held already: nothing to do), `short` (nothing held: the lines short), `skipped` (produced, on hold
+ * or cancelled: nothing to reserve).
+ */
+export type ReserveOutcome = "reserved" | "already_reserved" | "short" | "skipped";
+
+export interface ReserveAllResult {
+  counts: Record<"reserved" | "alreadyReserved" | "short" | "skipped", number>;
+  batches: {
+    batchId: string;
+    recipeCode: string;
+    plannedFor: string;
+    outcome: ReserveOutcome;
+    /** the batch's status after the call */
+    status: BatchStatus;
+    /** every line is held for the batch (reserved now or already) */
+    reserved: boolean;
+    short: Shortfall[];
+  }[];
+}
+
+/**
+ * Reserves every planned batch of a kitchen in a date range, each all or nothing in its own
+ * transaction, and says per batch what happened. A batch already held in full posts nothing again,
+ * so a second call (or a retry with a new key) changes nothing.
+ */
+export async function reserveAll(actor: CurrentUser, input: { kitchen: string; from: string; to: string }): Promise<ReserveAllResult> {
   const kitchen = await kitchenByCode(db(), actor, input.kitchen);
   assertCan(actor, "planning.manage", { kitchenId: kitchen.id });
-  const ids: { id: string }[] = await db()("batches").where({ company_id: actor.companyId, kitchen_id: kitchen.id })
-    .whereIn("status", ["planned", "reserved"]).whereBetween("planned_for", [input.from, input.to]).orderBy(["planned_for", "created_at"]).select("id");
-  const results: { batchId: string; reserved: boolean; short: Shortfall[] }[] = [];
-  for (const { id } of ids) {
-    const short = await inTransaction(async (trx) => {
+  const listed: { id: string; code: string; planned_for: string }[] = await db()("batches as b").join("recipes as r", "r.id", "b.recipe_id")
+    .where({ "b.company_id": actor.companyId, "b.kitchen_id": kitchen.id })
+    .whereBetween("b.planned_for", [input.from, input.to]).orderBy([{ column: "b.planned_for" }, { column: "b.created_at" }])
+    .select("b.id", "r.code", db().raw("to_char(b.planned_for, 'YYYY-MM-DD') as planned_for"));
+  const results: ReserveAllResult["batches"] = [];
+  for (const { id, code, planned_for } of listed) {
+    const r = await inTransaction(async (trx) => {
       const batch = await lockBatch(trx, actor, id, "planning.manage");
-      if (batch.status !== "planned" && batch.status !== "reserved") return [];
-      const s = await reserveIn(trx, actor, batch);
-      if (s.length) throw Object.assign(shortageError(s), { short: s });
-      return s;
+      if (batch.status !== "planned" && batch.status !== "reserved") return { outcome: "skipped" as const, status: batch.status, short: [] };
+      const { short, held } = await reserveIn(trx, actor, batch);
+      // all or nothing: a batch short of a line rolls back (a reserved batch short of a top-up keeps what it held)
+      if (short.length) throw Object.assign(shortageError(short), { short, batchStatus: batch.status });
+      return { outcome: held || batch.status === "planned" ? ("reserved" as const) : ("already_reserved" as const), status: "reserved" as const, short };
     }).catch((e: unknown) => {
-      if (e instanceof AppError && e.code === "SHORTAGE") return (e as AppError & { short: Shortfall[] }).short;
+      if (e instanceof AppError && e.code === "SHORTAGE") {
+        const x = e as AppError & { short: Shortfall[]; batchStatus: BatchStatus };
+        return { outcome: "short" as const, status: x.batchStatus, short: x.short };
+      }
       throw e;
     });
-    results.push({ batchId: id, reserved: short.length === 0, short });
+    results.push({ batchId: id, recipeCode: code, plannedFor: planned_for, outcome: r.outcome, status: r.status, reserved: r.outcome === "reserved" || r.outcome === "already_reserved", short: r.short });
   }
-  return { batches: results };
+  const count = (o: ReserveOutcome) => results.filter((r) => r.outcome === o).length;
+  return {
+    counts: { reserved: count("reserved"), alreadyReserved: count("already_reserved"), short: count("short"), skipped: count("skipped") },
+    batches: results,
+  };
 }
 
 async function releaseIn(trx: Knex.Transaction, batch: BatchRow) {

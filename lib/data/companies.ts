@@ -5,17 +5,25 @@ import type { CompanyRow } from "../../db/types";
 import { assertCan } from "../auth/assert";
 import type { CurrentUser } from "../auth/current-user";
 import type { RegulatoryTable } from "../cure/limits";
-import { plain } from "../units";
-import type { companyCureSettingsInput, companyUpdateInput } from "../validation/company";
+import { currencyDecimals, moneyText } from "../purchasing/order-money";
+import { dec, plain } from "../units";
+import { validation } from "../http/errors";
+import type { companyCureSettingsInput, companyUpdateInput, WeekStart } from "../validation/company";
 
 export interface Company {
   id: string;
   name: string;
   timeZone: string;
   currency: string;
+  /** the first day of the planning week (the week planner) */
+  weekStart: WeekStart;
+  /** buyers approve purchase orders up to this total, managers above it (the currency's decimals) */
+  approvalThreshold: string;
 }
 
-const toCompany = (c: CompanyRow): Company => ({ id: c.id, name: c.name, timeZone: c.time_zone, currency: c.currency });
+const toCompany = (c: CompanyRow): Company => ({
+  id: c.id, name: c.name, timeZone: c.time_zone, currency: c.currency, weekStart: c.week_start, approvalThreshold: moneyText(c.approval_threshold, c.currency),
+});
 
 export async function getCompany(actor: CurrentUser): Promise<Company> {
   const row: CompanyRow = await db()("companies").where({ id: actor.companyId }).first();
@@ -24,9 +32,16 @@ export async function getCompany(actor: CurrentUser): Promise<Company> {
 
 export async function updateCompany(actor: CurrentUser, input: z.infer<typeof companyUpdateInput>): Promise<Company> {
   assertCan(actor, "company.manage");
+  if (input.approvalThreshold !== undefined && dec(input.approvalThreshold).decimalPlaces() > currencyDecimals(input.currency)) {
+    const e = currencyDecimals(input.currency);
+    throw validation({ approvalThreshold: [e === 0 ? `${input.currency} has no decimals: enter a whole amount.` : `${input.currency} has ${e} decimals: enter at most ${e}.`] });
+  }
   const [row] = await db()("companies")
     .where({ id: actor.companyId })
-    .update({ name: input.name, time_zone: input.timeZone, currency: input.currency })
+    .update({
+      name: input.name, time_zone: input.timeZone, currency: input.currency, ...(input.weekStart ? { week_start: input.weekStart } : {}),
+      ...(input.approvalThreshold !== undefined ? { approval_threshold: input.approvalThreshold } : {}),
+    })
     .returning<CompanyRow[]>("*");
   return toCompany(row!);
 }

@@ -11,6 +11,7 @@ import type { CurrentUser } from "../auth/current-user";
 import type { Salt } from "../cure/limits";
 import { conflict, notFound, validation } from "../http/errors";
 import { plain, type ItemUnits } from "../units";
+import { reconvertSupplierPacks } from "./supplier-packs";
 import {
   isUuid, mergeItemPatch, resolveItem, type ItemDraft, type ItemPatch, type ResolvedCasing, type ResolvedItem,
 } from "../validation/items";
@@ -292,7 +293,10 @@ export async function updateItem(actor: CurrentUser, idOrSku: string, patch: Ite
         else await trx("item_packs").insert({ company_id: actor.companyId, item_id: id, name: k.name, ...values });
       }
       const packs = (await packsOf(trx, actor.companyId, [id])).get(id) ?? [];
-      return toItem(updated!, packs);
+      const saved = toItem(updated!, packs);
+      // suppliers' packs follow the item's units (stock unit, put-up length, density, own packs)
+      await reconvertSupplierPacks(trx, actor.companyId, id, saved.itemUnits, saved.sku);
+      return saved;
     });
   } catch (e) {
     if (isSkuViolation(e)) throw skuTaken(patch.sku ?? "");

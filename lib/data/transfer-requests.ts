@@ -1,7 +1,9 @@
 // Transfer requests between kitchens of one company: asked by the receiving kitchen, fulfilled
 // (the transfer posted in the same transaction) or declined by the sending one. The sending
 // kitchen may send a lot of its choosing; without one the ledger draws first-expired-first-out,
-// and lotChoices shows beforehand which lots that draw would take.
+// and lotChoices shows beforehand which lots that draw would take. A request asked from a batch's
+// shortage names the batch; while one is open for a batch and item, a second is refused (409
+// ALREADY_REQUESTED, also under two requests at once: a partial unique index).
 import "server-only";
 import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
@@ -33,12 +35,15 @@ export interface TransferRequest {
   decidedAt: string | null;
   declineReason: string | null;
   postingId: string | null;
+  /** the planned batch the request was asked for, if any */
+  batchId: string | null;
 }
 
 interface Row {
   id: string; status: TransferRequest["status"]; from_kitchen_id: string; to_kitchen_id: string; item_id: string;
   quantity: string; entered_quantity: string; entered_unit: string; note: string | null; requested_by: string | null;
   requested_at: Date; decided_by: string | null; decided_at: Date | null; decline_reason: string | null; posting_id: string | null;
+  batch_id: string | null;
   from_code: string; to_code: string; sku: string; name: string; stock_unit: string;
 }
 
@@ -57,6 +62,7 @@ const toRequest = (r: Row): TransferRequest => ({
   quantity: plain(dec(r.quantity)), enteredQuantity: r.entered_quantity, enteredUnit: r.entered_unit, note: r.note,
   requestedBy: r.requested_by, requestedAt: r.requested_at.toISOString(),
   decidedBy: r.decided_by, decidedAt: r.decided_at?.toISOString() ?? null, declineReason: r.decline_reason, postingId: r.posting_id,
+  batchId: r.batch_id,
 });
 
 async function kitchen(actor: CurrentUser, code: string, field: string): Promise<KitchenRow> {
@@ -83,13 +89,46 @@ export async function requestTransfer(actor: CurrentUser, input: z.infer<typeof 
     if (e instanceof UnitError) throw validation({ unit: [e.message] });
     throw e;
   }
+  if (input.batch) await checkBatch(actor, input.batch, to, item.row.id, item.row.sku);
   const [row] = await db()("transfer_requests")
     .insert({
       company_id: actor.companyId, from_kitchen_id: from.id, to_kitchen_id: to.id, item_id: item.row.id, quantity: toStored(quantity),
-      entered_quantity: input.quantity, entered_unit: input.unit, note: input.note ?? null, requested_by: actor.id,
+      entered_quantity: input.quantity, entered_unit: input.unit, note: input.note ?? null, requested_by: actor.id, batch_id: input.batch ?? null,
     })
-    .returning<{ id: string }[]>("id");
+    .returning<{ id: string }[]>("id")
+    .catch(async (e: unknown) => {
+      // two requests at once for the same batch and item: the second meets the partial unique index
+      if ((e as { constraint?: string }).constraint === OPEN_PER_BATCH_ITEM) throw await alreadyRequested(actor, input.batch!, item.row.id, item.row.sku);
+      throw e;
+    });
   return getRequest(actor, row!.id);
+}
+
+const OPEN_PER_BATCH_ITEM = "transfer_requests_open_per_batch_item";
+
+async function alreadyRequested(actor: CurrentUser, batchId: string, itemId: string, sku: string): Promise<AppError> {
+  const open: Row | undefined = await query(actor.companyId).where({ "r.batch_id": batchId, "r.item_id": itemId, "r.status": "open" }).first();
+  return conflict(
+    `${sku} for this batch is already asked of ${open?.from_code ?? "another kitchen"}; that request is still open.`,
+    "ALREADY_REQUESTED",
+    open ? { request: toRequest(open) } : undefined,
+  );
+}
+
+/**
+ * A request for a batch: the batch is of the company (404), still planned or reserved, planned in
+ * the receiving kitchen, needs the item, and has no open request for it yet (409 ALREADY_REQUESTED).
+ */
+async function checkBatch(actor: CurrentUser, batchId: string, to: KitchenRow, itemId: string, sku: string): Promise<void> {
+  const batch: { id: string; kitchen_id: string; status: string } | undefined = await db()("batches")
+    .where({ company_id: actor.companyId, id: batchId }).first("id", "kitchen_id", "status");
+  if (!batch) throw notFound("Batch");
+  if (batch.kitchen_id !== to.id) throw validation({ batch: [`This batch is planned in another kitchen than ${to.code}: ask for the batch's kitchen.`] });
+  if (batch.status !== "planned" && batch.status !== "reserved") throw validation({ batch: [`This batch is ${batch.status.replace("_", " ")}: it needs no more stock.`] });
+  const line = await db()("batch_lines").where({ batch_id: batch.id, item_id: itemId }).first("id");
+  if (!line) throw validation({ item: [`${sku} is not on this batch's bill of materials.`] });
+  const open = await db()("transfer_requests").where({ company_id: actor.companyId, batch_id: batch.id, item_id: itemId, status: "open" }).first("id");
+  if (open) throw await alreadyRequested(actor, batch.id, itemId, sku);
 }
 
 export async function listTransferRequests(actor: CurrentUser, f: z.infer<typeof transferRequestsQuery>): Promise<TransferRequest[]> {

@@ -19,14 +19,17 @@ import type { meBody } from "../../app/api/me/me-body";
 import { SESSION_COOKIE } from "../auth/session";
 import type { CapturedMail } from "../data/captured-mail";
 import type { CasingCalculation } from "../data/casing-calculation";
-import type { Batch } from "../data/batches";
+import type { Batch, ReserveAllResult } from "../data/batches";
 import type { BatchTrace, LotTrace } from "../data/trace";
 import type { Company } from "../data/companies";
 import type { Recipe, RecipeSummary } from "../data/recipes";
 import type { InvitationSummary } from "../data/invitations";
 import type { Item } from "../data/items";
 import type { Kitchen } from "../data/kitchens";
-import type { TransferLotChoices } from "../data/transfer-requests";
+import type { Supplier, SupplierItem } from "../data/suppliers";
+import type { PurchaseOrder, PurchaseOrderPage } from "../data/purchase-orders";
+import type { ReorderSuggestions } from "../data/reorder-suggestions";
+import type { TransferLotChoices, TransferRequest } from "../data/transfer-requests";
 import type { UserSummary } from "../data/users";
 import { invitationAcceptInput, passwordResetConfirmInput, passwordResetRequestInput, signInInput } from "../validation/auth";
 import { companyUpdateInput, invitationCreateInput, kitchenCreateInput, kitchenUpdateInput, userUpdateInput } from "../validation/company";
@@ -36,8 +39,17 @@ import {
   batchChangeInput, batchCreateInput, batchListQuery, batchListResponse, batchProduceInput, batchReserveAllInput, batchResponse, batchTraceResponse, holdReleaseInput, lotTraceResponse,
   reserveAllResponse, traceQuery,
 } from "../validation/batches";
+import { gs1LabelResponse, gs1ParseInput } from "../validation/gs1";
 import { houseLimitsInput, houseLimitsResponse } from "../validation/house-limits";
 import { itemCreateInput, itemListQuery, itemPatchInput } from "../validation/items";
+import {
+  supplierCreateInput, supplierItemCreateInput, supplierItemListQuery, supplierItemListResponse, supplierItemPatchInput, supplierItemResponse,
+  supplierListQuery, supplierListResponse, supplierPatchInput, supplierResponse,
+} from "../validation/suppliers";
+import {
+  purchaseOrderCreateInput, purchaseOrderListQuery, purchaseOrderListResponse, purchaseOrderPatchInput, purchaseOrderReasonInput, purchaseOrderResponse,
+} from "../validation/purchase-orders";
+import { reorderOrdersInput, reorderOrdersResponse, reorderSuggestionsQuery, reorderSuggestionsResponse } from "../validation/reorder";
 import { recipeCreateInput, recipeGetQuery, recipeListQuery, recipeListResponse, recipeResponse, recipeVersionInput } from "../validation/recipes";
 import {
   countSheetInput, movementInput, reverseInput, stockLevelInput, transferDeclineInput, transferFulfilInput, transferRequestInput, transferRequestsQuery,
@@ -70,13 +82,21 @@ export type ResponseShapesMatch = [
   Assert<Same<z.infer<typeof capturedMailListResponse>, CapturedMail[]>>,
   Assert<Same<z.infer<typeof meResponse>, ReturnType<typeof meBody>>>,
   Assert<Same<z.infer<typeof itemResponse>, Item>>,
+  Assert<Same<z.infer<typeof supplierResponse>, Supplier>>,
+  Assert<Same<z.infer<typeof supplierItemResponse>, SupplierItem>>,
+  Assert<Same<z.infer<typeof purchaseOrderResponse>, PurchaseOrder>>,
+  Assert<Same<z.infer<typeof purchaseOrderListResponse>, PurchaseOrderPage>>,
+  Assert<Same<z.infer<typeof reorderSuggestionsResponse>, ReorderSuggestions>>,
+  Assert<Same<z.infer<typeof reorderOrdersResponse>, { orders: PurchaseOrder[] }>>,
   Assert<Same<z.infer<typeof casingCalculationResponse>, CasingCalculation>>,
   Assert<Same<z.infer<typeof recipeResponse>, Recipe>>,
   Assert<Same<z.infer<typeof batchResponse>, Batch>>,
+  Assert<Same<z.infer<typeof reserveAllResponse>, ReserveAllResult>>,
   Assert<Same<z.infer<typeof lotTraceResponse>, LotTrace>>,
   Assert<Same<z.infer<typeof batchTraceResponse>, BatchTrace>>,
   Assert<Same<z.infer<typeof recipeListResponse>, { recipes: RecipeSummary[] }>>,
   Assert<Same<z.infer<typeof transferLotChoicesResponse>, TransferLotChoices>>,
+  Assert<Same<z.infer<typeof transferRequestResponse>, TransferRequest>>,
 ];
 
 // ---------------------------------------------------------------------------------------------
@@ -127,6 +147,39 @@ const ITEM_NOTES: FieldNotes = {
   densityGPerMl: DECIMAL("Spices and ingredients: grams per millilitre, for recipes given by volume. Not for cures (by mass only).", "1.03"),
 };
 
+const SUPPLIER_NOTES: FieldNotes = {
+  name: { description: "Unique in the company, whatever the case.", example: "Fenwick & Rudd Casings" },
+  contactName: { description: "Who to ask for. Default empty." },
+  orderEmail: { ...EMAIL, description: "Where orders are e-mailed; trimmed and lower-cased. Left out or null: none.", example: "orders@supplier.example" },
+  phone: { description: "Digits, spaces and + ( ) - . /.", example: "+44 1632 960 123" },
+  leadTimeDays: { description: "Whole days from order to delivery, 0 to 365 (a JSON integer).", example: 3 },
+  minOrderValue: DECIMAL("Minimum order value in the company's currency (every supplier trades in it), at most as many decimals as the currency has; null or left out: no minimum.", "150.00"),
+  notes: { description: "Free text, at most 2000 characters." },
+  active: { description: "Default true." },
+};
+
+const SUPPLIER_ITEM_NOTES: FieldNotes = {
+  sku: { description: "The supplier's own code; unique per supplier, whatever the case (409 otherwise).", example: "FR-H3235-B5" },
+  description: { description: "As on the supplier's price list." },
+  item: { description: "Our stock item, by id or SKU. Not archived. Several supplier items of the same item are alternatives for it.", example: "HOG-32-35" },
+  packLabel: { description: "What the supplier calls the pack; left out or empty: the quantity and unit (\"5 hank\").", example: "bundle of 5 hanks" },
+  packQuantity: DECIMAL("The pack's size in packUnit.", "5"),
+  packUnit: { description: "Any unit of the item: a global unit (kg, lb, m, yd...), its put-up (hank) or one of its packs. Converted exactly to the item's stock unit (packSizeStock); a unit that does not convert is 422 on packUnit, naming both units.", example: "hank" },
+  gtin: { description: "GTIN-8, -12, -13 or -14 with a correct check digit (spaces allowed), stored padded to 14 digits. A bad one is 422 on gtin.", example: "036000291452" },
+  active: { description: "Default true." },
+};
+
+const PURCHASE_ORDER_NOTES: FieldNotes = {
+  supplier: { description: "The supplier's id; an active supplier of your company (422 on supplier otherwise)." },
+  kitchen: { description: "The delivery kitchen, by id or code; not archived.", example: "YARD" },
+  lines: {
+    description: "1 to 200 lines: {supplierItem, packs, packPrice?}. supplierItem: an active item of this supplier, once per order (422 on lines.N.supplierItem). packs: whole packs as a string (\"2.5\" is 422 on lines.N.packs). packPrice: the price of one pack in the company's currency, up to 4 decimals; left out: the supplier item's current price (the latest on or before today), and with none known 422 on lines.N.packPrice. Line totals and the order total are worked out by the server.",
+    example: [{ supplierItem: "0b8c4f4e-3f7e-4a51-9d7e-2f1d8f0f6a10", packs: "2", packPrice: "189.50" }],
+  },
+  deliverBy: { description: "Asked-for delivery date, yyyy-mm-dd, today or later; null or left out: none.", example: "2026-12-09" },
+  notes: { description: "For the supplier: printed on the PDF and quoted in the e-mail. At most 2000 characters." },
+};
+
 const bodies = {
   signIn: requestBody("SignInInput", signInInput, { email: EMAIL }),
   passwordResetRequest: requestBody("PasswordResetRequestInput", passwordResetRequestInput, { email: EMAIL }),
@@ -138,6 +191,8 @@ const bodies = {
   companyUpdate: requestBody("CompanyUpdateInput", companyUpdateInput, {
     timeZone: TIME_ZONE,
     currency: { description: "ISO 4217 code, upper-cased.", example: "EUR" },
+    weekStart: { description: "The first day of the planning week: monday, sunday or saturday. Left out: unchanged.", example: "sunday" },
+    approvalThreshold: DECIMAL("Buyers approve purchase orders up to this total, managers and admins above it; in the currency sent, at most its decimals (422 otherwise). Left out: unchanged.", "750.00"),
   }),
   kitchenCreate: requestBody("KitchenCreateInput", kitchenCreateInput, {
     code: { description: "Unique in the company; upper-cased.", example: "NORTH-1" },
@@ -195,6 +250,7 @@ const bodies = {
     fromKitchen: { description: "The kitchen asked to send, by code.", example: "LANE" },
     toKitchen: { description: "Your kitchen, which receives, by code.", example: "YARD" },
     quantity: DECIMAL("Above zero, in unit.", "2"),
+    batch: { description: "The planned batch whose shortage this is for (its bill of materials' suggestion): planned in toKitchen, still planned or reserved, with the item on a line. One open request per batch and item." },
   }),
   transferFulfil: requestBody("TransferFulfilInput", transferFulfilInput, {
     lot: { description: "The id of the lot to send: a lot of the requested item with enough available in the sending kitchen (GET /api/transfer-requests/{id}/lots lists them). Left out: first-expired-first-out, expired lots skipped. An expired lot named here is sent (the ledger refuses only to use one)." },
@@ -208,10 +264,50 @@ const bodies = {
     parLevel: DECIMAL("In unit (default the stock unit); null clears it.", "4"),
     reorderPoint: DECIMAL("In unit; not above the par level; null clears it.", "2"),
   }),
+  supplierCreate: requestBody("SupplierCreateInput", supplierCreateInput, SUPPLIER_NOTES),
+  supplierPatch: requestBody("SupplierPatchInput", supplierPatchInput, {
+    ...SUPPLIER_NOTES,
+    orderEmail: { ...SUPPLIER_NOTES.orderEmail, description: "Where orders are e-mailed; null clears it." },
+    minOrderValue: { ...SUPPLIER_NOTES.minOrderValue, description: "In the company's currency, at most its decimals; null clears it (no minimum). A decimal string; a JSON number is 422." },
+    active: { description: "false takes the supplier off the buying lists; its items and history stay." },
+  }),
+  supplierItemCreate: requestBody("SupplierItemCreateInput", supplierItemCreateInput, SUPPLIER_ITEM_NOTES),
+  supplierItemPatch: requestBody("SupplierItemPatchInput", supplierItemPatchInput, {
+    ...SUPPLIER_ITEM_NOTES,
+    gtin: { ...SUPPLIER_ITEM_NOTES.gtin, description: "GTIN-8, -12, -13 or -14 with a correct check digit (spaces allowed), stored padded to 14 digits; null clears it." },
+    active: { description: "false takes the supplier item off the buying lists; it stays on record." },
+  }),
+  purchaseOrderCreate: requestBody("PurchaseOrderCreateInput", purchaseOrderCreateInput, PURCHASE_ORDER_NOTES),
+  purchaseOrderPatch: requestBody("PurchaseOrderPatchInput", purchaseOrderPatchInput, {
+    kitchen: PURCHASE_ORDER_NOTES.kitchen!,
+    notes: PURCHASE_ORDER_NOTES.notes!,
+    lines: { ...PURCHASE_ORDER_NOTES.lines, description: `Replaces every line. ${PURCHASE_ORDER_NOTES.lines!.description}` },
+    deliverBy: { description: "yyyy-mm-dd, today or later; null clears it.", example: "2026-12-09" },
+  }),
+  reorderOrders: requestBody("ReorderOrdersInput", reorderOrdersInput, {
+    kitchen: { description: "The delivery kitchen, by id or code; of your company (422 on kitchen otherwise), not archived, where you may draft orders (403).", example: "YARD" },
+    lines: {
+      description: "1 to 500 lines: {supplierItemId, packs, packPrice?}, as the suggestion chose them or changed. supplierItemId: an active item of an active supplier of your company, once per request (422 on lines.N.supplierItemId). packs: whole packs as a string. packPrice: only needed when the supplier item has no current price (422 on lines.N.packPrice otherwise). The lines make one draft per supplier.",
+      example: [{ supplierItemId: "0b8c4f4e-3f7e-4a51-9d7e-2f1d8f0f6a10", packs: "4" }],
+    },
+  }),
+  purchaseOrderReason: requestBody("PurchaseOrderReasonInput", purchaseOrderReasonInput, {
+    reason: { description: "Why, in a few words (1 to 500 characters); kept on the order and shown in its history.", example: "Supplier out of stock until March" },
+  }),
   itemPatch: requestBody("ItemPatchInput", itemPatchInput, {
     ...ITEM_NOTES,
     packs: { description: "Replaces every pack of the item." },
     archived: { description: "true hides the item from lists and pickers; false brings it back. Its records stay." },
+  }),
+  gs1Parse: requestBody("Gs1ParseInput", gs1ParseInput, {
+    data: {
+      description: "What the scanner typed: an element string with GS (ASCII 29, \\u001d in JSON) after each variable-length value that is not last, optionally led by a symbology identifier (]C1, ]d2, ]Q3, ]e0; ]E0, ]E4, ]I1 carry a bare GTIN); or the bracketed form printed under the barcode; or a bare GTIN-8/12/13/14. At most 2500 characters.",
+      example: "]C10112345678901231172703001012345",
+    },
+    separator: {
+      description: "The character(s) a keyboard-wedge scanner types instead of GS, e.g. \"|\". 1 to 8 characters, at least one of them never part of GS1 data (not a letter, digit or one of ! \" % & ' ( ) * + , - . / : ; < = > ? _). GS is always accepted as well.",
+      example: "|",
+    },
   }),
   userUpdate: requestBody("UserUpdateInput", userUpdateInput, {
     kitchenIds: { ...KITCHEN_IDS, description: "Replaces the user's kitchens. Kitchens of your company; a kitchen lead needs at least one." },
@@ -273,7 +369,14 @@ export interface EndpointDoc {
   idempotent?: boolean;
   params?: z.ZodObject;
   query?: z.ZodObject;
-  success: { status: 200 | 201 | 202; description: string; schema: z.ZodType; setsCookie?: string };
+  success: {
+    status: 200 | 201 | 202;
+    description: string;
+    schema: z.ZodType;
+    setsCookie?: string;
+    /** A file download (e.g. application/pdf) instead of JSON; schema then describes the bytes. */
+    mediaType?: string;
+  };
   /** What the endpoint itself (its data-layer calls) can answer, beyond the wrapper's errors. */
   errors?: Partial<Record<ErrorStatus, Cause[]>>;
 }
@@ -284,8 +387,11 @@ export const TAGS = [
   { name: "Company", description: "The company every record belongs to." },
   { name: "Kitchens", description: "The company's kitchens: where stock lives and who may act where." },
   { name: "Items", description: "The catalogue: casings, cures, spices and other ingredients, with their purchase packs." },
+  { name: "Suppliers", description: "Who we buy from: contacts, lead time, minimum order, and each supplier's items with their SKU, pack and GTIN." },
+  { name: "Purchase orders", description: "Orders to suppliers: drafted, approved (buyers up to the company's approval threshold, managers above it), e-mailed to the supplier with a PDF and a CSV, closed short or cancelled." },
   { name: "Stock", description: "On hand, reserved and available per kitchen and lot; par levels; lots about to expire." },
   { name: "Ledger", description: "Movements: receipts, transfers, use, waste, adjustments and counts; reversals; count sheets." },
+  { name: "GS1 labels", description: "Reading the barcodes on case labels (GS1-128, GS1 DataMatrix, GS1 QR, EAN/UPC, ITF-14) for buying and receiving." },
   { name: "Planning", description: "Calculators and, as they land, recipes, batch plans and reservations." },
   { name: "Users", description: "People in the company, their roles and kitchens. Admins only." },
   { name: "Invitations", description: "Single-use e-mailed links that create accounts." },
@@ -300,6 +406,20 @@ const idParam = (what: string) =>
   });
 
 const BATCH_ID = z.object({ id: z.uuid().meta({ description: "The batch's id. Not in your company: 404." }) });
+
+const PURCHASING_READ: Cause = ["FORBIDDEN", "Your role may not see buying (admins, managers, buyers and accountants only)."];
+const PURCHASING_MANAGE: Cause = ["FORBIDDEN", "Your role may not manage suppliers (admins, managers and buyers only)."];
+
+const PURCHASING_ORDERS: Cause = ["FORBIDDEN", "Your role may not draft, change, send, close or cancel orders (admins, managers and buyers only)."];
+const ORDER_NOT_FOUND: Cause = ["NOT_FOUND", "No such order in your company (another company's order is 404 too)."];
+const ORDER_STATUS = (when: string): Cause => ["ORDER_STATUS", `The step does not fit the order's status: ${when}. The message says why; details.status is the status.`];
+const PDF_FILE = z.string().meta({ id: "PurchaseOrderPdf", description: "The PDF's bytes.", format: "binary" });
+const CSV_FILE = z.string().meta({ id: "PurchaseOrderCsv", description: "UTF-8 CSV text, CRLF line ends, a header row." });
+
+const SUPPLIER_ITEM_PARAMS = z.object({
+  id: z.uuid().meta({ description: "The supplier's id. Not in your company: 404." }),
+  supplierItemId: z.uuid().meta({ description: "The supplier item's id; an item of another supplier answers 404." }),
+});
 
 const ITEM_REF = z.object({
   id: z.string().meta({ description: "The item's id (a UUID) or its SKU. Not in your company: 404.", example: "HOG-32-35" }),
@@ -355,13 +475,13 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
   {
     method: "get", path: "/api/company", operationId: "getCompany", tag: "Company", auth: true,
     summary: "Your company",
-    description: "Name, default time zone and currency of the signed-in user's company.",
+    description: "Name, default time zone, currency, the first day of the planning week and the purchase order approval threshold of the signed-in user's company.",
     success: { status: 200, description: "The company.", schema: companyResponse },
   },
   {
     method: "patch", path: "/api/company", operationId: "updateCompany", tag: "Company", auth: true,
     summary: "Change the company",
-    description: "Replaces the company's name, default time zone and currency (all three are required).",
+    description: "Replaces the company's name, default time zone and currency (all three are required) and, when sent, the first day of the planning week (weekStart) and the purchase order approval threshold (approvalThreshold); left out: unchanged. Admins only.",
     body: bodies.companyUpdate,
     success: { status: 200, description: "The company as saved.", schema: companyResponse },
     errors: { 403: [ADMIN_ONLY("manage the company")] },
@@ -634,9 +754,9 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
   {
     method: "post", path: "/api/batches/reserve-all", operationId: "reserveAllBatches", tag: "Planning", auth: true, idempotent: true,
     summary: "Reserve every planned batch of a kitchen between two days",
-    description: "Each batch all or nothing, in production-day order; the answer says which batches were reserved and what the others lack.",
+    description: "Each planned batch all or nothing, in production-day order; the answer counts and names per batch what happened: reserved now, already reserved (nothing posted again, so a second call changes nothing), short (which lines) or skipped (produced, on hold or cancelled).",
     body: requestBody("BatchReserveAllInput", batchReserveAllInput),
-    success: { status: 200, description: "Per batch: reserved, or what is short.", schema: reserveAllResponse },
+    success: { status: 200, description: "Counts per outcome and each batch's outcome.", schema: reserveAllResponse },
     errors: { 403: [["FORBIDDEN", "Not your kitchen."]], 404: [["NOT_FOUND", "No such kitchen in your company."]] },
   },
   {
@@ -677,6 +797,18 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
       422: [["VALIDATION", "A field is wrong, named in details.fields: a cure without nitriteFraction (cures.N.nitriteFraction), a meat block of zero or less, a unit that is not a mass, an unknown productClass, table or method, a class the method cannot make, table eu without batchMass, a pumped cure without pickle or pumpFraction."]],
     },
   },
+  // GS1 labels ----------------------------------------------------------------------------
+  {
+    method: "post", path: "/api/gs1/parse", operationId: "parseGs1Label", tag: "GS1 labels", auth: true,
+    summary: "Read a GS1 case label",
+    description: "Splits a scan into GS1 Application Identifiers by GS1's table of predefined lengths (so AIs this product does not read land in `other` instead of breaking the scan) and reads (00) SSCC, (01) GTIN and (02) contained GTIN with their check digits, (10) lot, (11) (13) (15) (16) (17) dates, (30) and (37) counts, (310n) kg and (320n) lb net weights as exact decimal strings with the label's decimals. Two-digit years are placed within -49..+50 years of the current year in your time zone (GS1 General Specifications 7.12). Day 00: best before, sell by and expiration are read as the last day of the month; production and packaging dates are answered as YYYY-MM. For anyone with purchasing.read or stock.receive. Computes only; writes nothing.",
+    body: bodies.gs1Parse,
+    success: { status: 200, description: "What the label says; absent fields are null.", schema: gs1LabelResponse },
+    errors: {
+      403: [["FORBIDDEN", "Your role neither buys nor receives (purchasing.read or stock.receive)."]],
+      422: [["VALIDATION", "The scan cannot be read: message and details.fields.data say what is wrong and name the AI (a wrong check digit in (01), a value cut short, a date that does not exist, (37) with (01), data after the end, an empty scan...); details.gs1 carries {reason, ai, position} for programs (reason: EMPTY, NO_AI, UNKNOWN_AI, TOO_SHORT, TOO_LONG, EMPTY_VALUE, NOT_NUMERIC, INVALID_CHARACTER, BAD_CHECK_DIGIT, INVALID_DATE, NOT_ALLOWED_TOGETHER, DUPLICATE_AI, DATA_AFTER_END, BAD_BRACKETS, BAD_SEPARATOR)."]],
+    },
+  },
   {
     method: "get", path: "/api/transfer-requests", operationId: "listTransferRequests", tag: "Ledger", auth: true,
     summary: "Transfer requests",
@@ -687,10 +819,14 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
   {
     method: "post", path: "/api/transfer-requests", operationId: "requestTransfer", tag: "Ledger", auth: true, idempotent: true,
     summary: "Ask another kitchen for stock",
-    description: "A kitchen lead asks for its own kitchen (managers and admins for any); the sending kitchen's lead or a manager fulfils or declines it.",
+    description: "A kitchen lead asks for its own kitchen (managers and admins for any); the sending kitchen's lead or a manager fulfils or declines it. With batch, the request is for that batch's shortage (the batch sheet's transfer suggestion) and shows on the batch's line while it is open. Send an Idempotency-Key so a double click asks once.",
     body: bodies.transferRequest,
     success: { status: 201, description: "The open request.", schema: transferRequestResponse },
-    errors: { 403: [["FORBIDDEN", "You may ask only for your own kitchen."]], 404: [["NOT_FOUND", "No such kitchen or item in your company."]] },
+    errors: {
+      403: [["FORBIDDEN", "You may ask only for your own kitchen."]],
+      404: [["NOT_FOUND", "No such kitchen, item or batch in your company."]],
+      409: [["ALREADY_REQUESTED", "A request for this batch and item is still open: details.request is that request."]],
+    },
   },
   {
     method: "post", path: "/api/transfer-requests/{id}/fulfil", operationId: "fulfilTransferRequest", tag: "Ledger", auth: true, idempotent: true,
@@ -778,6 +914,240 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
         ["ITEM_HAS_LOTS", "The item has lots: its category and stock unit can no longer change (details.fields names which)."],
       ],
       422: [["VALIDATION", "The item after the change breaks a rule of its category (details.fields names each field)."]],
+    },
+  },
+  // Suppliers -----------------------------------------------------------------------------
+  {
+    method: "get", path: "/api/suppliers", operationId: "listSuppliers", tag: "Suppliers", auth: true,
+    summary: "List suppliers",
+    description: "The company's suppliers by name, each with its number of active items. Inactive suppliers only with inactive=true.",
+    query: supplierListQuery.extend({
+      q: supplierListQuery.shape.q.meta({ description: "Part of the name or the contact's name." }),
+      inactive: supplierListQuery.shape.inactive.meta({ description: "true: inactive suppliers too." }),
+    }),
+    success: { status: 200, description: "The suppliers.", schema: supplierListResponse },
+    errors: {
+      403: [PURCHASING_READ],
+      422: [["VALIDATION", "A query parameter that is not valid (details.fields)."]],
+    },
+  },
+  {
+    method: "post", path: "/api/suppliers", operationId: "createSupplier", tag: "Suppliers", auth: true, idempotent: true,
+    summary: "Add a supplier",
+    description: "Adds a supplier in the company's currency. Send an Idempotency-Key so a retried request cannot add it twice.",
+    body: bodies.supplierCreate,
+    success: { status: 201, description: "The new supplier.", schema: supplierResponse },
+    errors: {
+      403: [PURCHASING_MANAGE],
+      409: [["CONFLICT", "Another supplier of your company has this name (details.fields.name)."]],
+      422: [["VALIDATION", "A field is not valid, e.g. more decimals in minOrderValue than the currency has (details.fields)."]],
+    },
+  },
+  {
+    method: "get", path: "/api/suppliers/{id}", operationId: "getSupplier", tag: "Suppliers", auth: true,
+    summary: "One supplier",
+    description: "A supplier of your company.",
+    params: idParam("supplier"),
+    success: { status: 200, description: "The supplier.", schema: supplierResponse },
+    errors: { 403: [PURCHASING_READ], 404: [["NOT_FOUND", "No such supplier in your company (another company's supplier is 404 too)."]] },
+  },
+  {
+    method: "patch", path: "/api/suppliers/{id}", operationId: "updateSupplier", tag: "Suppliers", auth: true,
+    summary: "Change a supplier",
+    description: "Changes only the fields sent; null clears the order e-mail or the minimum order value. active=false takes the supplier off the buying lists; nothing is deleted.",
+    params: idParam("supplier"),
+    body: bodies.supplierPatch,
+    success: { status: 200, description: "The supplier as saved.", schema: supplierResponse },
+    errors: {
+      403: [PURCHASING_MANAGE],
+      404: [["NOT_FOUND", "No such supplier in your company."]],
+      409: [["CONFLICT", "Another supplier of your company has this name (details.fields.name)."]],
+      422: [["VALIDATION", "A field is not valid (details.fields)."]],
+    },
+  },
+  {
+    method: "get", path: "/api/suppliers/{id}/items", operationId: "listSupplierItems", tag: "Suppliers", auth: true,
+    summary: "A supplier's items",
+    description: "What the supplier sells us, by the supplier's SKU: our item, the pack as entered and its exact size in the item's stock unit (and in metres for casings), the GTIN-14. Inactive ones only with inactive=true.",
+    params: idParam("supplier"),
+    query: supplierItemListQuery.extend({ inactive: supplierItemListQuery.shape.inactive.meta({ description: "true: inactive supplier items too." }) }),
+    success: { status: 200, description: "The supplier's items.", schema: supplierItemListResponse },
+    errors: {
+      403: [PURCHASING_READ],
+      404: [["NOT_FOUND", "No such supplier in your company."]],
+      422: [["VALIDATION", "A query parameter that is not valid (details.fields)."]],
+    },
+  },
+  {
+    method: "post", path: "/api/suppliers/{id}/items", operationId: "createSupplierItem", tag: "Suppliers", auth: true, idempotent: true,
+    summary: "Add a supplier item",
+    description: "Lists one of our items under the supplier's SKU, in one pack (\"bundle of 5 hanks\" = 5 hank). The pack is converted exactly to the item's stock unit and stored with it (12 decimals, half-even). Send an Idempotency-Key so a retried request cannot add it twice.",
+    params: idParam("supplier"),
+    body: bodies.supplierItemCreate,
+    success: { status: 201, description: "The new supplier item.", schema: supplierItemResponse },
+    errors: {
+      403: [PURCHASING_MANAGE],
+      404: [["NOT_FOUND", "No such supplier in your company."]],
+      409: [["CONFLICT", "The supplier already has an item with this SKU (details.fields.sku) or this GTIN (details.fields.gtin)."]],
+      422: [["VALIDATION", "No such item, an archived item (details.fields.item), a pack unit that does not convert to the item's stock unit (details.fields.packUnit, naming both units), or a bad GTIN check digit or length (details.fields.gtin)."]],
+    },
+  },
+  {
+    method: "get", path: "/api/suppliers/{id}/items/{supplierItemId}", operationId: "getSupplierItem", tag: "Suppliers", auth: true,
+    summary: "One supplier item",
+    description: "An item of this supplier of your company.",
+    params: SUPPLIER_ITEM_PARAMS,
+    success: { status: 200, description: "The supplier item.", schema: supplierItemResponse },
+    errors: { 403: [PURCHASING_READ], 404: [["NOT_FOUND", "No such item of this supplier in your company."]] },
+  },
+  {
+    method: "patch", path: "/api/suppliers/{id}/items/{supplierItemId}", operationId: "updateSupplierItem", tag: "Suppliers", auth: true,
+    summary: "Change a supplier item",
+    description: "Changes only the fields sent; null clears the GTIN. A new item, pack quantity or pack unit converts the pack again. active=false takes it off the buying lists; nothing is deleted.",
+    params: SUPPLIER_ITEM_PARAMS,
+    body: bodies.supplierItemPatch,
+    success: { status: 200, description: "The supplier item as saved.", schema: supplierItemResponse },
+    errors: {
+      403: [PURCHASING_MANAGE],
+      404: [["NOT_FOUND", "No such item of this supplier in your company."]],
+      409: [["CONFLICT", "The supplier already has an item with this SKU (details.fields.sku) or this GTIN (details.fields.gtin)."]],
+      422: [["VALIDATION", "As when adding: item, packUnit or gtin (details.fields)."]],
+    },
+  },
+  // Purchase orders -----------------------------------------------------------------------
+  {
+    method: "get", path: "/api/purchase-orders", operationId: "listPurchaseOrders", tag: "Purchase orders", auth: true,
+    summary: "List purchase orders",
+    description: "The company's orders, newest first, a page at a time, filtered by status, supplier and delivery kitchen.",
+    query: purchaseOrderListQuery.extend({
+      status: purchaseOrderListQuery.shape.status.meta({ description: "Only orders in this status." }),
+      supplier: purchaseOrderListQuery.shape.supplier.meta({ description: "Only orders to this supplier (its id)." }),
+      kitchen: purchaseOrderListQuery.shape.kitchen.meta({ description: "Only orders delivered to this kitchen (its code).", example: "YARD" }),
+      page: purchaseOrderListQuery.shape.page.meta({ description: "Page number, from 1. Default 1." }),
+      perPage: purchaseOrderListQuery.shape.perPage.meta({ description: "Orders per page, 1 to 100. Default 25." }),
+    }),
+    success: { status: 200, description: "A page of orders and the number matching.", schema: purchaseOrderListResponse },
+    errors: { 403: [PURCHASING_READ], 422: [["VALIDATION", "A query parameter that is not valid (details.fields)."]] },
+  },
+  {
+    method: "post", path: "/api/purchase-orders", operationId: "createPurchaseOrder", tag: "Purchase orders", auth: true, idempotent: true,
+    summary: "Draft a purchase order",
+    description: "A draft for one supplier and one delivery kitchen, numbered PO-year-sequence. Whole packs; each line's pack price as sent, else the supplier item's current price; line totals (packs x pack price, half-even to the currency's decimals) and the total are worked out here. Send an Idempotency-Key so a retried request cannot draft it twice.",
+    body: bodies.purchaseOrderCreate,
+    success: { status: 201, description: "The new draft.", schema: purchaseOrderResponse },
+    errors: {
+      403: [PURCHASING_ORDERS],
+      422: [["VALIDATION", "details.fields names each problem: supplier (not of your company, or switched off), kitchen (not of your company, or archived), deliverBy (before today), lines.N.packs (not whole packs), lines.N.supplierItem (not an active item of this supplier, or twice on the order), lines.N.packPrice (no current price: send one)."]],
+    },
+  },
+  {
+    method: "get", path: "/api/purchase-orders/{id}", operationId: "getPurchaseOrder", tag: "Purchase orders", auth: true,
+    summary: "One purchase order",
+    description: "The order with its lines (ordered, received and still to come in the item's stock unit), its history (created, approved, sent, closed short, cancelled: who and when) and the steps the signed-in user may take now.",
+    params: idParam("purchase order"),
+    success: { status: 200, description: "The order.", schema: purchaseOrderResponse },
+    errors: { 403: [PURCHASING_READ], 404: [ORDER_NOT_FOUND] },
+  },
+  {
+    method: "patch", path: "/api/purchase-orders/{id}", operationId: "updatePurchaseOrder", tag: "Purchase orders", auth: true,
+    summary: "Change a draft",
+    description: "Changes the fields sent; lines replaces every line (totals worked out again). Only drafts change; the supplier stays.",
+    params: idParam("purchase order"),
+    body: bodies.purchaseOrderPatch,
+    success: { status: 200, description: "The draft as saved.", schema: purchaseOrderResponse },
+    errors: {
+      403: [PURCHASING_ORDERS],
+      404: [ORDER_NOT_FOUND],
+      409: [ORDER_STATUS("the order is no longer a draft")],
+      422: [["VALIDATION", "As for a new draft (details.fields names each field and line)."]],
+    },
+  },
+  {
+    method: "post", path: "/api/purchase-orders/{id}/approve", operationId: "approvePurchaseOrder", tag: "Purchase orders", auth: true, idempotent: true,
+    summary: "Approve a draft",
+    description: "A buyer approves an order whose total is at most the company's approval threshold (Settings > Company, PATCH /api/company approvalThreshold); above it a manager or admin approves. Two approvals at once: one succeeds, the other is 409. Send an Idempotency-Key so a retry replays the first answer.",
+    params: idParam("purchase order"),
+    success: { status: 200, description: "The approved order.", schema: purchaseOrderResponse },
+    errors: {
+      403: [
+        ["FORBIDDEN", "Your role may not approve orders (kitchen leads and accountants)."],
+        ["FORBIDDEN", "You are a buyer and the total is above the approval threshold: the message names both amounts and says a manager must approve."],
+      ],
+      404: [ORDER_NOT_FOUND],
+      409: [ORDER_STATUS("the order is not a draft (already approved, for instance)")],
+    },
+  },
+  {
+    method: "post", path: "/api/purchase-orders/{id}/send", operationId: "sendPurchaseOrder", tag: "Purchase orders", auth: true, idempotent: true,
+    summary: "Send an approved order to the supplier",
+    description: "E-mails the supplier's order address with the order attached as PDF and CSV (the same files GET .../pdf and .../csv give), written in the same transaction as the status change (sent) and sent by the worker. Sending again is 409. Send an Idempotency-Key so a retry replays the first answer instead.",
+    params: idParam("purchase order"),
+    success: { status: 200, description: "The sent order.", schema: purchaseOrderResponse },
+    errors: {
+      403: [PURCHASING_ORDERS],
+      404: [ORDER_NOT_FOUND],
+      409: [ORDER_STATUS("the order is not approved (a draft, or already sent)")],
+      422: [["VALIDATION", "The supplier has no order e-mail address (details.fields[\"supplier.orderEmail\"]): add one to the supplier first."]],
+    },
+  },
+  {
+    method: "post", path: "/api/purchase-orders/{id}/close", operationId: "closePurchaseOrderShort", tag: "Purchase orders", auth: true, idempotent: true,
+    summary: "Close an order short",
+    description: "A sent or partly received order whose rest will not come: closed with a reason; nothing more is expected against it.",
+    params: idParam("purchase order"),
+    body: bodies.purchaseOrderReason,
+    success: { status: 200, description: "The order, closed short.", schema: purchaseOrderResponse },
+    errors: { 403: [PURCHASING_ORDERS], 404: [ORDER_NOT_FOUND], 409: [ORDER_STATUS("the order was not sent, or is already received, closed or cancelled")] },
+  },
+  {
+    method: "post", path: "/api/purchase-orders/{id}/cancel", operationId: "cancelPurchaseOrder", tag: "Purchase orders", auth: true, idempotent: true,
+    summary: "Cancel an order",
+    description: "A draft, an approved order, or a sent one before anything was received, with a reason. A sent order's supplier is e-mailed the cancellation at the address the order went to.",
+    params: idParam("purchase order"),
+    body: bodies.purchaseOrderReason,
+    success: { status: 200, description: "The order, cancelled.", schema: purchaseOrderResponse },
+    errors: {
+      403: [PURCHASING_ORDERS],
+      404: [ORDER_NOT_FOUND],
+      409: [ORDER_STATUS("goods were received against it (close it short instead), or it is already closed or cancelled")],
+    },
+  },
+  {
+    method: "get", path: "/api/purchase-orders/{id}/pdf", operationId: "getPurchaseOrderPdf", tag: "Purchase orders", auth: true,
+    summary: "The order as PDF",
+    description: "The PDF the supplier gets, dated the day it was sent (not yet sent: today), as a download (Content-Disposition: attachment; filename PO-....pdf).",
+    params: idParam("purchase order"),
+    success: { status: 200, description: "The PDF.", schema: PDF_FILE, mediaType: "application/pdf" },
+    errors: { 403: [PURCHASING_READ], 404: [ORDER_NOT_FOUND] },
+  },
+  {
+    method: "get", path: "/api/purchase-orders/{id}/csv", operationId: "getPurchaseOrderCsv", tag: "Purchase orders", auth: true,
+    summary: "The order as CSV",
+    description: "The CSV the supplier gets (RFC 4180, one row per line: order_number, line, supplier_sku, description, pack, packs, pack_price, line_total, currency, deliver_to, deliver_by), as a download.",
+    params: idParam("purchase order"),
+    success: { status: 200, description: "The CSV.", schema: CSV_FILE, mediaType: "text/csv" },
+    errors: { 403: [PURCHASING_READ], 404: [ORDER_NOT_FOUND] },
+  },
+  // Reorder suggestions -------------------------------------------------------------------
+  {
+    method: "get", path: "/api/reorder-suggestions", operationId: "getReorderSuggestions", tag: "Purchase orders", auth: true,
+    summary: "What to reorder",
+    description: "Per kitchen, the items with a reorder point whose projection falls below it, grouped by the preselected supplier. For each supplier that lists the item: projected = on hand - reserved - planned batch use not yet reserved (batches dated up to today + the supplier's lead time) + what sent or partly received orders still bring by then; suggested when projected < reorder point; packs = (par level, or the reorder point without one) - projected, rounded up to whole packs. The cheapest offer per stock unit is preselected; the others are alternatives with their own figures. A supplier's lines are raised by whole packs to its minimum order value. Drafts and approved orders are listed as pending, not counted. Quantities are in the item's stock unit.",
+    query: reorderSuggestionsQuery.extend({
+      kitchen: reorderSuggestionsQuery.shape.kitchen.meta({ description: "One kitchen, by id or code. Left out: every open kitchen you may see.", example: "YARD" }),
+    }),
+    success: { status: 200, description: "The suggestions, per kitchen.", schema: reorderSuggestionsResponse },
+    errors: { 403: [PURCHASING_READ], 404: [["NOT_FOUND", "No open kitchen of your company has this id or code."]] },
+  },
+  {
+    method: "post", path: "/api/reorder-suggestions/orders", operationId: "createReorderOrders", tag: "Purchase orders", auth: true, idempotent: true,
+    summary: "Draft orders from reorder suggestions",
+    description: "One draft purchase order per supplier of the lines, delivered to the kitchen and asked for by today + the supplier's lead time. Every line is checked before any draft is made; the drafts are made one after the other (each in its own transaction), and if one still fails, those already made by this request are cancelled and the error names the request's line. Send an Idempotency-Key: a retry replays the first answer and makes nothing new.",
+    body: bodies.reorderOrders,
+    success: { status: 201, description: "The drafts made.", schema: reorderOrdersResponse },
+    errors: {
+      403: [PURCHASING_ORDERS],
+      422: [["VALIDATION", "details.fields names each problem: kitchen (not of your company, or archived), lines.N.supplierItemId (not of your company, switched off, its supplier switched off, its item archived, or twice), lines.N.packs (not whole packs), lines.N.packPrice (no current price: send one)."]],
     },
   },
   // Users ---------------------------------------------------------------------------------
@@ -938,7 +1308,7 @@ function buildRegistry(): OpenAPIRegistry {
         ...(ep.success.setsCookie
           ? { headers: { "Set-Cookie": { description: ep.success.setsCookie, schema: { type: "string" } } } }
           : {}),
-        content: { "application/json": { schema: ep.success.schema } },
+        content: { [ep.success.mediaType ?? "application/json"]: { schema: ep.success.schema } },
       },
     };
     for (const [status, causes] of errorCauses(ep)) responses[status] = errorResponseConfig(status, causes);

@@ -44,11 +44,13 @@ export class OrderStepError extends Error {
 
 /** Throws OrderStepError with a sentence a buyer can act on when the step is not allowed now. */
 export function assertStep(step: OrderStep, status: OrderStatus, receivedAnything = false): void {
-  if (!ALLOWED[step].includes(status)) {
+  // a partly received order cannot be cancelled either; say what to do instead
+  if (step === "cancel" && status === "partly_received") receivedAnything = true;
+  else if (!ALLOWED[step].includes(status)) {
     const what = { edit: "changed", approve: "approved", send: "sent", close_short: "closed short", cancel: "cancelled" }[step];
     throw new OrderStepError(step, status, `An order that is ${ORDER_STATUS_LABELS[status].toLowerCase()} cannot be ${what}.`);
   }
-  if (step === "cancel" && status === "sent" && receivedAnything) {
+  if (step === "cancel" && receivedAnything) {
     throw new OrderStepError(step, status, "Goods have already been received against this order: close it short instead of cancelling it.");
   }
 }

@@ -4,11 +4,12 @@
 // messages (422 details.fields, e.g. "lines.2.rate") and details (409 SHORTAGE details.lines).
 // Writes take the caller's Idempotency-Key: one key per user action, kept for a retry after a lost
 // answer, a new one for the next action.
-import type { Batch } from "@/lib/data/batches";
+import type { Batch, ReserveAllResult } from "@/lib/data/batches";
 import type { CasingCalculation } from "@/lib/data/casing-calculation";
 import type { Item } from "@/lib/data/items";
 import type { Recipe, RecipeSummary } from "@/lib/data/recipes";
 import type { BatchTrace, LotTrace } from "@/lib/data/trace";
+import type { TransferRequest } from "@/lib/data/transfer-requests";
 import type { BatchCreateInput, BatchProduceInput } from "@/lib/validation/batches";
 import type { CasingCalculationInput } from "@/lib/validation/casing";
 import type { RecipeCreateInput, RecipeVersionInput } from "@/lib/validation/recipes";
@@ -16,7 +17,7 @@ import { apiFetch, jsonInit } from "./api";
 
 export { ApiError } from "./api";
 export { newIdempotencyKey } from "./stock";
-export type { Batch, BatchLine, BatchStatus, Production } from "@/lib/data/batches";
+export type { Batch, BatchLine, BatchStatus, Production, ReserveAllResult, ReserveOutcome } from "@/lib/data/batches";
 export type { BatchTrace, LotTrace } from "@/lib/data/trace";
 export type { CasingCalculation } from "@/lib/data/casing-calculation";
 export type { Item } from "@/lib/data/items";
@@ -39,10 +40,6 @@ export type BatchCreateBody = Omit<BatchCreateInput, "note"> & { note?: string }
 export type BatchProduceBody = Omit<BatchProduceInput, "lines" | "note"> & Partial<Pick<BatchProduceInput, "lines" | "note">>;
 export type RecipeCreateBody = Omit<RecipeCreateInput, "lines" | "processNotes" | "changeNote"> & Partial<Pick<RecipeCreateInput, "lines" | "processNotes" | "changeNote">>;
 export type RecipeVersionBody = Omit<RecipeVersionInput, "lines" | "processNotes" | "changeNote"> & Partial<Pick<RecipeVersionInput, "lines" | "processNotes" | "changeNote">>;
-
-export interface ReserveAllResult {
-  batches: { batchId: string; reserved: boolean; short: { position: number; sku: string; needed: string; available: string; unit: string }[] }[];
-}
 
 /** The lines a 409 SHORTAGE named (details.lines), empty for any other error. */
 export function shortLinesOf(e: unknown): ReserveAllResult["batches"][number]["short"] {
@@ -133,9 +130,18 @@ export const produceBatch = (id: string, body: BatchProduceBody, idempotencyKey:
 export const releaseHold = (id: string, reason: string, idempotencyKey: string) =>
   post<Batch>(`/api/batches/${encodeURIComponent(id)}/release-hold`, { reason }, idempotencyKey);
 
-/** POST /api/batches/reserve-all: every planned batch of a kitchen between two days, each all or nothing. */
+/** POST /api/batches/reserve-all: every planned batch of a kitchen between two days, each all or nothing; per batch reserved now, already reserved, short or skipped. */
 export const reserveAll = (body: { kitchen: string; from: string; to: string }, idempotencyKey: string) =>
   post<ReserveAllResult>("/api/batches/reserve-all", body, idempotencyKey);
+
+/**
+ * POST /api/transfer-requests for a batch's shortage: asks the suggested kitchen for the item, for
+ * the batch's kitchen. 409 ALREADY_REQUESTED while one for the batch and item is open.
+ */
+export const requestBatchTransfer = (
+  body: { batch: string; fromKitchen: string; toKitchen: string; item: string; quantity: string; unit: string; note?: string },
+  idempotencyKey: string,
+) => post<TransferRequest>("/api/transfer-requests", body, idempotencyKey);
 
 /** POST /api/recipes: a new recipe and its version 1. */
 export const createRecipe = (body: RecipeCreateBody, idempotencyKey: string) => post<Recipe>("/api/recipes", body, idempotencyKey);

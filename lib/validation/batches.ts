@@ -123,6 +123,9 @@ export const batchResponse = z
             z.object({ kind: z.literal("buy"), quantity: decimal }),
           ]),
         ),
+        openRequests: z
+          .array(z.object({ id: z.string(), fromKitchen: kitchenRef, quantity: decimal, requestedAt: z.string() }))
+          .meta({ description: "Transfer requests asked for this batch and item that are still open (POST /api/transfer-requests with batch); at most one." }),
       }),
     ),
     cure: cureCalculationResponse.nullable().meta({ description: "The cure verdict on the rounded amounts, as planned." }),
@@ -172,15 +175,27 @@ export const batchResponse = z
 
 export const batchListResponse = z.object({ batches: z.array(batchResponse) }).meta({ id: "BatchList" });
 
+const BATCH_STATUSES = ["planned", "reserved", "produced", "on_hold", "cancelled"] as const;
+
 export const reserveAllResponse = z
   .object({
+    counts: z
+      .object({ reserved: z.number().int(), alreadyReserved: z.number().int(), short: z.number().int(), skipped: z.number().int() })
+      .meta({ description: "How many batches had each outcome." }),
     batches: z.array(
       z.object({
         batchId: z.string(),
-        reserved: z.boolean(),
-        short: z.array(z.object({ position: z.number().int(), sku: z.string(), needed: decimal, available: decimal, unit: z.string() })),
+        recipeCode: z.string(),
+        plannedFor: z.string().meta({ example: "2026-12-08" }),
+        outcome: z.enum(["reserved", "already_reserved", "short", "skipped"]).meta({
+          description: "reserved: stock held now; already_reserved: every line was held already, nothing posted; short: nothing held, `short` names the lines; skipped: produced, on hold or cancelled (see status).",
+        }),
+        status: z.enum(BATCH_STATUSES).meta({ description: "The batch's status after the call." }),
+        reserved: z.boolean().meta({ description: "Every line is held for the batch (reserved now or already)." }),
+        short: z.array(z.object({ position: z.number().int(), sku: z.string(), needed: decimal, available: decimal, unit: z.string() }))
+          .meta({ description: "With outcome short: each line short, what it needs and what could be held, in the stock unit." }),
       }),
-    ),
+    ).meta({ description: "Every batch of the kitchen planned in the range, by production day." }),
   })
   .meta({ id: "ReserveAllResult" });
 

@@ -4,10 +4,25 @@ import { TABLES } from "../cure/limits";
 import { dec } from "../units";
 import { email, decimalString, role, timeZone, uuid } from "./common";
 
+/** The day a company's planning week starts on (companies.week_start; Monday unless it says otherwise). */
+export const WEEK_STARTS = ["monday", "sunday", "saturday"] as const;
+export type WeekStart = (typeof WEEK_STARTS)[number];
+export const weekStart = z.enum(WEEK_STARTS, { error: "Choose the first day of the week: monday, sunday or saturday." });
+
+/** The approval threshold of purchase orders: an amount of the company's currency, major units (companies.approval_threshold). */
+export const approvalThreshold = z
+  .string({ error: "Send the threshold as a decimal string, e.g. \"500.00\"." })
+  .trim()
+  .regex(/^\d{1,16}(\.\d{1,4})?$/, { error: "Use a plain amount such as 500 or 500.00, without the currency sign." });
+
 export const companyUpdateInput = z.object({
   name: z.string().trim().min(1, "Enter the company name.").max(120),
   timeZone,
   currency: z.string().trim().toUpperCase().regex(/^[A-Z]{3}$/, "Use a three-letter ISO 4217 code, e.g. EUR."),
+  /** left out: unchanged (clients written before the setting keep working) */
+  weekStart: weekStart.optional(),
+  /** buyers approve purchase orders up to this total, managers above it; left out: unchanged */
+  approvalThreshold: approvalThreshold.optional(),
 });
 
 /** The cure calculator's company settings (Settings > Company). */

@@ -88,6 +88,8 @@ export const transferRequestInput = z
     quantity: decimalString({ scale: 12 }).refine((q) => !/^0*(\.0*)?$/.test(q), "Ask for a quantity above zero."),
     unit: z.string().trim().min(1, "Enter the unit.").max(40),
     note: z.string().trim().max(500).optional(),
+    /** the planned batch whose shortage this is for (toKitchen is its kitchen): one open request per batch and item */
+    batch: uuid.optional(),
   })
   .refine((v) => v.fromKitchen.toUpperCase() !== v.toKitchen.toUpperCase(), { path: ["fromKitchen"], message: "Ask another kitchen than your own." });
 

@@ -6,6 +6,7 @@
 import { z } from "zod";
 import { CASING_KINDS, CASING_STORAGE, DATE_KINDS, ITEM_CATEGORIES, MOVEMENT_KINDS, PUT_UPS, ROLES, STOCK_UNITS } from "../../db/types";
 import { SALTS } from "../cure/limits";
+import { WEEK_STARTS } from "./company";
 
 const id = z.uuid();
 const timestamp = z.iso.datetime({ offset: true }).meta({ description: "ISO 8601 timestamp in UTC, e.g. 2026-12-02T09:30:00.000Z." });
@@ -74,6 +75,8 @@ export const companyResponse = z
     name: z.string(),
     timeZone: z.string().meta({ description: "IANA time zone, e.g. Europe/Vienna." }),
     currency: z.string().meta({ description: "ISO 4217 code.", example: "EUR" }),
+    weekStart: z.enum(WEEK_STARTS).meta({ description: "The first day of the planning week: the week planner shows that day and the six after it. Default monday." }),
+    approvalThreshold: z.string().meta({ description: "Buyers approve purchase orders up to this total, managers and admins above it; in the company's currency with its decimals. Default 500. A decimal string.", example: "500.00" }),
   })
   .meta({ id: "Company" });
 
@@ -323,6 +326,7 @@ export const transferRequestResponse = z
     decidedAt: timestamp.nullable(),
     declineReason: z.string().nullable(),
     postingId: z.uuid().nullable().meta({ description: "The transfer's movements, once fulfilled." }),
+    batchId: z.uuid().nullable().meta({ description: "The planned batch the request was asked for (its shortage), if any." }),
   })
   .meta({ id: "TransferRequest" });
 export const transferRequestListResponse = z.object({ requests: z.array(transferRequestResponse) }).meta({ id: "TransferRequestList" });

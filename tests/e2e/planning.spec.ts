@@ -2,13 +2,16 @@
 // two kitchens; the kitchen lead works in the first:
 // - the lead plans next week's batches from the planner (one by meat block in kg, one in lb), sees
 //   the bill of materials after each, sees the second short of stock ("2 lines short" in words,
-//   with a transfer and a buy suggestion), reserves the week, and the stock grid shows reserved
-//   and available changing for the spice of the reserved batch;
+//   with a transfer and a buy suggestion), reserves the week (the summary says what was reserved now
+//   and what is short; a second click says the first is already reserved), and the stock grid shows
+//   reserved and available changing for the spice of the reserved batch;
 // - on the batch pages: Reserve of the short batch is refused all or nothing, Release (confirmed)
 //   gives the lots back, Reserve holds them again, Cancel (confirmed) ends a plan;
 // - the lead writes a recipe: the meat block must add up to 100 %, a cure over the maximum is
 //   refused next to the line's rate, then it saves with its cure check; a new version follows;
-// - the casing calculator: 45 kg of filling in a 32/35 mm hog casing is one hank.
+// - the casing calculator: 45 kg of filling in a 32/35 mm hog casing is one hank;
+// - an admin makes the company's weeks start on Sunday: the planner then shows Sunday to Saturday,
+//   and a ?week= day in the middle of a week snaps to its Sunday.
 // Check values (sources in trade-facts): 2.5 g/kg of a 6.25 % cure = 156.25 ppm, the 9 CFR
 // 424.21(c) comminuted maximum (§1, §2 [calc]); 3 g/kg = 187.5 ppm, over it; cure rounded to the
 // 0.1 g scale toward compliance, down under a maximum (§2); 1 lb = 453.59237 g exactly (§7);
@@ -177,8 +180,8 @@ test("a kitchen lead plans next week, sees a shortage, reserves all, and the gri
   // reserve all: the batch with stock is reserved, the short one is reported and left as it is
   await page.getByRole("button", { name: "Reserve all" }).click();
   const report = page.getByRole("region", { name: "Reserve all: result" });
-  await expect(report).toContainText("1 reserved, 1 short of stock");
-  await expect(report.getByRole("listitem").filter({ hasText: dayShort(tuesday) })).toContainText("reserved.");
+  await expect(report.getByRole("heading")).toContainText("1 reserved now, 1 short of stock");
+  await expect(report.getByRole("listitem").filter({ hasText: dayShort(tuesday) })).toContainText("reserved now.");
   const shortItem = report.getByRole("listitem").filter({ hasText: dayShort(thursday) });
   await expect(shortItem).toContainText("not reserved, 2 lines short");
   await expect(shortItem).toContainText(`${pepper.sku} needs 170.1 g, 70 g available`); // after Tuesday took 50 g
@@ -186,6 +189,11 @@ test("a kitchen lead plans next week, sees a shortage, reserves all, and the gri
   await expect(thu).toContainText("Planned");
   expect(await seriousViolations(page)).toEqual([]);
   await page.screenshot({ path: "tests/e2e/screenshots/planning-reserve-all.png" });
+  // again: nothing new to hold, Tuesday's is already reserved, Thursday's still short
+  await page.getByRole("button", { name: "Reserve all" }).click();
+  await expect(report.getByRole("heading")).toContainText("nothing new to hold: 1 already reserved, 1 short of stock");
+  await expect(report.getByRole("listitem").filter({ hasText: dayShort(tuesday) })).toContainText("already reserved, nothing to do.");
+  await expect(report.getByRole("listitem").filter({ hasText: dayShort(thursday) })).toContainText("not reserved, 2 lines short");
 
   // the stock grid: 50 g of pepper reserved for Tuesday, 70 g still available
   const after = await pepperCells(page);
@@ -376,5 +384,31 @@ test("the casing calculator: 45 kg of filling in a 32/35 mm hog casing is one ha
   await page.getByLabel("Filling mass", { exact: true }).fill("0");
   await page.getByRole("button", { name: "Calculate" }).click();
   await expect(page.getByLabel("Filling mass", { exact: true })).toHaveAccessibleDescription(/more than zero/);
+  await page.context().close();
+});
+
+test("an admin makes weeks start on Sunday, and the planner's week runs Sunday to Saturday", async ({ browser }) => {
+  test.setTimeout(90_000);
+  const admin = await signedInPage(browser, co.users.admin.email, co.password);
+  await admin.goto("/settings");
+  const weekStart = admin.getByLabel("Planning weeks begin on");
+  await expect(weekStart).toHaveValue("monday");
+  await weekStart.selectOption("sunday");
+  await admin.getByRole("button", { name: "Save", exact: true }).click();
+  await expect(admin.getByText("Company details saved.")).toBeVisible();
+  await admin.context().close();
+
+  const page = await leadPage(browser);
+  // the Wednesday after next Monday: its week (from Sunday) is the one from the day before that Monday
+  const wednesday = shift(nextMonday, 2);
+  const sunday = shift(nextMonday, -1);
+  await page.goto(`/planning?week=${wednesday}`);
+  const days = page.getByRole("list", { name: /^Batches in / }).getByRole("listitem", { name: /^\w+day \d+ \w+$/ });
+  await expect(days).toHaveCount(7);
+  await expect(days.first()).toHaveAccessibleName(new RegExp(`^Sunday ${Number(sunday.slice(8))} `));
+  await expect(days.last()).toHaveAccessibleName(new RegExp(`^Saturday ${Number(shift(sunday, 6).slice(8))} `));
+  await page.getByRole("link", { name: "Next week" }).click();
+  await expect(page).toHaveURL(new RegExp(`week=${shift(sunday, 7)}$`));
+  await expect(days.first()).toHaveAccessibleName(new RegExp(`^Sunday ${Number(shift(sunday, 7).slice(8))} `));
   await page.context().close();
 });

@@ -6,10 +6,12 @@ import { register as registerEsm } from "tsx/esm/api";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { closeDb } from "../../db/client";
 import { DEMO_COMPANIES, DEMO_PASSWORD } from "../../db/seeds/demo-data";
-import { DEMO_ITEMS } from "../../db/seeds/demo-stock-catalogue";
+import { DEMO_ITEMS, SUPPLIERS } from "../../db/seeds/demo-stock-catalogue";
 import { loadDemo, type DemoLoad } from "../../db/seeds/load-demo";
 import { hashPassword, verifyPassword } from "../../lib/auth/password";
 import { getStock } from "../../lib/data/stock";
+import { listSupplierItems, listSuppliers } from "../../lib/data/suppliers";
+import { isValidGtin } from "../../lib/gs1/gtin";
 import { dec } from "../../lib/units";
 import { tag } from "../support/factory";
 import { currentUser } from "../support/sessions";
@@ -134,15 +136,15 @@ describe("loadDemo on an empty database", () => {
   });
 
   it("a second call (and two at once) loads nothing, posts nothing and never wipes", async () => {
-    const tables = ["companies", "kitchens", "app_users", "items", "lots", "stock_movements", "stock_levels", "recipes", "batches", "reservations"];
+    const tables = ["companies", "kitchens", "app_users", "items", "lots", "stock_movements", "stock_levels", "recipes", "batches", "reservations", "suppliers", "supplier_items", "purchase_orders", "purchase_order_lines", "outbox_emails"];
     const counts = async () => Object.fromEntries(await Promise.all(tables.map(async (t) => [t, await countOf(seedDb, t)])));
     const before = await counts();
     const ids = await seedDb("app_users").orderBy("id").pluck("id");
     // a change made since loading must survive
     await seedDb("kitchens").where({ code: "ROPE" }).update({ name: "Renamed by a user" });
 
-    expect(await loadDemo(seedDb)).toEqual({ companies: false, stock: null, recipes: null });
-    expect(await Promise.all([loadDemo(seedDb), loadDemo(seedDb)])).toEqual([{ companies: false, stock: null, recipes: null }, { companies: false, stock: null, recipes: null }]);
+    expect(await loadDemo(seedDb)).toEqual({ companies: false, stock: null, recipes: null, suppliers: null, orders: null });
+    expect(await Promise.all([loadDemo(seedDb), loadDemo(seedDb)])).toEqual([{ companies: false, stock: null, recipes: null, suppliers: null, orders: null }, { companies: false, stock: null, recipes: null, suppliers: null, orders: null }]);
 
     expect(await counts()).toEqual(before);
     expect(await seedDb("app_users").orderBy("id").pluck("id")).toEqual(ids);
@@ -153,7 +155,7 @@ describe("loadDemo on an empty database", () => {
     const { knex, drop } = await freshDatabase();
     try {
       await knex("companies").insert({ name: "A real customer" });
-      expect(await loadDemo(knex)).toEqual({ companies: false, stock: null, recipes: null });
+      expect(await loadDemo(knex)).toEqual({ companies: false, stock: null, recipes: null, suppliers: null, orders: null });
       expect(await knex("companies").pluck("name")).toEqual(["A real customer"]);
       expect(await knex("app_users").first()).toBeUndefined();
       expect(await knex("items").first()).toBeUndefined();
@@ -228,6 +230,9 @@ describe("`npm run seed` on a database made before the demo had stock", () => {
       expect(await countOf(knex, "stock_movements", { company_id: first })).toBe(movements);
       expect(await countOf(knex, "items", { company_id: first })).toBe(DEMO_ITEMS.length);
       expect(await countOf(knex, "companies")).toBe(4);
+      // the suppliers too, into the demo company only
+      expect(await countOf(knex, "suppliers", { company_id: first })).toBe(3);
+      expect(await countOf(knex, "suppliers")).toBe(3);
     } finally {
       await drop();
     }
@@ -240,7 +245,7 @@ describe("`npm run seed` on a database made before the demo had stock", () => {
       await knex("app_users").where({ company_id: first, role: "buyer" }).update({ disabled_at: new Date() });
       const warn = vi.spyOn(console, "warn").mockImplementation(() => {});
       try {
-        expect(await loadDemo(knex)).toEqual({ companies: false, stock: null, recipes: null });
+        expect(await loadDemo(knex)).toEqual({ companies: false, stock: null, recipes: null, suppliers: null, orders: null });
         expect(warn.mock.calls.flat().join(" ")).toContain("no active buyer");
       } finally {
         warn.mockRestore();
@@ -370,5 +375,95 @@ describe("the demo stock of the first demo company", () => {
     const salt = yard.rows.find((r) => r.sku === "SALT-FINE")!;
     const sum = await seedDb("stock_movements").where({ kitchen_id: yard.kitchen.id, item_id: salt.itemId }).sum<{ s: string }[]>("delta as s");
     expect(dec(salt.onHand).eq(dec(sum[0]!.s))).toBe(true);
+  });
+});
+
+describe("the demo purchase orders of the first demo company", () => {
+  const company = () => seedDb("companies").where({ name: "Quillmoor Provisions" }).first<{ id: string }>();
+
+  it("are one sent, one approved and one draft over the approval threshold, written through the same checks as a person's", async () => {
+    expect(loaded.orders).toEqual({ orders: 3, sent: 1 });
+    const c = await company();
+    const orders = await seedDb("purchase_orders as po").join("suppliers as s", "s.id", "po.supplier_id").join("kitchens as k", "k.id", "po.kitchen_id")
+      .where("po.company_id", c!.id).orderBy("po.number").select("po.*", "s.name as supplier", "k.code as kitchen");
+    expect(orders.map((o) => [o.supplier, o.kitchen, o.status])).toEqual([
+      [SUPPLIERS.casings.name, "YARD", "sent"],
+      [SUPPLIERS.curing.name, "LANE", "approved"],
+      [SUPPLIERS.spices.name, "ROPE", "draft"],
+    ]);
+    expect(orders.map((o) => o.number)).toEqual(orders.map((_, i) => expect.stringMatching(new RegExp(`^PO-\\d{4}-000${i + 1}$`))));
+    // prices from the invented list, exact: 8 x 24.50 + 4 x 36.50 + 1 x 96.00 = 438.00 GBP, within a buyer's 500.00
+    expect(orders[0].total).toBe("438.0000");
+    // 20 x 11.80 + 12 x 10.60 + 6 x 11.50 + 10 x 8.90 = 521.20: above the 500.00 threshold, so it waits for a manager
+    expect(orders[2].total).toBe("521.2000");
+    expect((await seedDb("companies").where({ id: c!.id }).first("approval_threshold")).approval_threshold).toBe("500.0000");
+    // the sent order's e-mail waits in the outbox for the worker, with the PDF and CSV
+    const mail = await seedDb("outbox_emails").where({ id: orders[0].sent_outbox_email_id }).first();
+    expect(mail).toMatchObject({ status: "pending", to_addresses: ["trade@fenwickrudd.test"], subject: `Purchase order ${orders[0].number} from Quillmoor Provisions` });
+    const files = await seedDb("outbox_email_attachments").where({ outbox_email_id: mail.id }).orderBy("position").pluck("filename");
+    expect(files).toEqual([`${orders[0].number}.pdf`, `${orders[0].number}.csv`]);
+  });
+});
+
+describe("the demo suppliers of the first demo company", () => {
+  const company = () => seedDb("companies").where({ name: "Quillmoor Provisions" }).first<{ id: string }>();
+  const buyer = async (companyId: string) => currentUser((await seedDb("app_users").where({ company_id: companyId, role: "buyer" }).first("id")).id);
+
+  it("are the three invented suppliers the demo deliveries come from, each with contact, lead time and minimum order", async () => {
+    expect(loaded.suppliers).toEqual({ suppliers: 3, items: DEMO_ITEMS.length + 2, lots: expect.any(Number) });
+    expect(loaded.suppliers!.lots).toBeGreaterThan(30);
+    const c = await company();
+    const suppliers = await listSuppliers(await buyer(c!.id));
+    expect(suppliers.map((s) => s.name)).toEqual(Object.values(SUPPLIERS).map((s) => s.name).sort());
+    for (const s of suppliers) {
+      expect(s).toMatchObject({ currency: "GBP", active: true, orderEmail: expect.stringMatching(/@[a-z-]+\.test$/) });
+      expect(s.itemCount).toBeGreaterThan(0);
+    }
+    expect(suppliers.find((s) => s.name === SUPPLIERS.casings.name)).toMatchObject({ leadTimeDays: 5, minOrderValue: "150.00" });
+    expect(suppliers.find((s) => s.name === SUPPLIERS.spices.name)!.minOrderValue).toBeNull();
+    // the other demo company has none
+    const other = await seedDb("companies").where({ name: "Ferngill Larder" }).first("id");
+    expect(await countOf(seedDb, "suppliers", { company_id: other.id })).toBe(0);
+  });
+
+  it("list every demo item at its own supplier, hog hanks also from a second one in bundles of 5 hanks", async () => {
+    const c = await company();
+    const rows = await seedDb("supplier_items as si").join("items as i", "i.id", "si.item_id").where("si.company_id", c!.id).select("i.sku as item", "si.*");
+    expect(new Set(rows.map((r) => r.item))).toEqual(new Set(DEMO_ITEMS.map((d) => d.draft.sku)));
+    const hog = rows.filter((r) => r.item === "HOG-32-35");
+    expect(hog).toHaveLength(2); // alternatives: two suppliers' items for the same stock item
+    const bundle = hog.find((r) => r.pack_label === "bundle of 5 hanks")!;
+    expect(bundle.pack_size_stock).toBe("5.000000000000"); // one pc is one hank
+    const user = await buyer(c!.id);
+    const items = await listSupplierItems(user, bundle.supplier_id);
+    // a hank is 100 yd = 91.44 m (trade-facts §4), so 5 hanks are 457.2 m exactly
+    expect(items.find((i) => i.id === bundle.id)).toMatchObject({ packSizeStock: "5", stockUnit: "pc", packMetres: "457.2" });
+    // a 25 kg sack of dextrose is 25000 g (kg = 1000 g, NIST SP 811)
+    expect(rows.find((r) => r.sku === "MST-DEX25")!.pack_size_stock).toBe("25000.000000000000");
+    // GTINs: GS1's demonstration prefix 952, padded to 14 digits, with a valid check digit (trade-facts §6)
+    const gtins = rows.map((r) => r.gtin14).filter(Boolean);
+    expect(gtins.length).toBeGreaterThanOrEqual(10);
+    for (const g of gtins) {
+      expect(g).toMatch(/^0952\d{10}$/);
+      expect(isValidGtin(g)).toBe(true);
+    }
+  });
+
+  it("link every demo lot to the supplier that delivered it", async () => {
+    const c = await company();
+    const lots = await seedDb("lots as l").leftJoin("suppliers as s", "s.id", "l.supplier_id").where("l.company_id", c!.id).select("l.supplier_name", "s.name as supplier");
+    expect(lots.length).toBeGreaterThan(30);
+    for (const l of lots) expect(l.supplier, `lot from ${l.supplier_name}`).toBe(l.supplier_name);
+  });
+
+  it("are loaded into a demo company that has stock but no supplier yet (a database from before suppliers)", async () => {
+    const c = await company();
+    await seedDb("lots").where({ company_id: c!.id }).update({ supplier_id: null });
+    await seedDb("purchase_orders").where({ company_id: c!.id }).delete(); // the demo orders point at the suppliers
+    await seedDb("suppliers").where({ company_id: c!.id }).delete(); // its items go with it
+    const again = await loadDemo(seedDb);
+    expect(again).toEqual({ companies: false, stock: null, recipes: null, suppliers: { suppliers: 3, items: DEMO_ITEMS.length + 2, lots: loaded.suppliers!.lots }, orders: { orders: 3, sent: 1 } });
+    expect(await countOf(seedDb, "supplier_items", { company_id: c!.id })).toBe(DEMO_ITEMS.length + 2);
+    expect(await loadDemo(seedDb)).toEqual({ companies: false, stock: null, recipes: null, suppliers: null, orders: null });
   });
 });

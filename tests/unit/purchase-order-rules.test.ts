@@ -21,6 +21,7 @@ describe("order steps", () => {
   it("cancels before anything arrives, never after", () => {
     expect(() => assertStep("cancel", "sent", false)).not.toThrow();
     expect(() => assertStep("cancel", "sent", true)).toThrow(/close it short instead/);
+    expect(() => assertStep("cancel", "partly_received")).toThrow(/close it short instead/);
     expect(() => assertStep("cancel", "received")).toThrow(/cannot be cancelled/);
     expect(() => assertStep("cancel", "closed_short")).toThrow(OrderStepError);
   });

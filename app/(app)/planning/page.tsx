@@ -1,14 +1,15 @@
-// The week planner: the current kitchen's batches day by day for one week (Monday to Sunday), with
-// their status and shortages, "Reserve all" for the week and "Plan a batch".
+// The week planner: the current kitchen's batches day by day for one week (from the company's first
+// day of the week, Monday unless it chose another), with their status and shortages, "Reserve all"
+// for the week and "Plan a batch". ?week= takes any day and shows the week it falls in.
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
-import { addDays, defaultWeek, isIsoDay, mondayOf, todayIn } from "@/components/planning/dates";
+import { addDays, defaultWeek, isIsoDay, todayIn, weekStartOf } from "@/components/planning/dates";
 import { PageHeader } from "@/components/shell/page-header";
 import { EmptyState } from "@/components/ui/empty-state";
 import { can, canSomewhere } from "@/lib/auth/permissions";
 import { requireUser } from "@/lib/auth/session";
 import { listBatches } from "@/lib/data/batches";
-import { getCureSettings } from "@/lib/data/companies";
+import { getCompany, getCureSettings } from "@/lib/data/companies";
 import { getCurrentKitchen } from "@/lib/data/current-kitchen";
 import { listKitchens } from "@/lib/data/kitchens";
 import { listRecipes } from "@/lib/data/recipes";
@@ -24,7 +25,8 @@ export default async function Page({ searchParams }: { searchParams: Promise<{ w
   const kitchen = await getCurrentKitchen(user);
   const sp = await searchParams;
   const today = todayIn(user.timeZone);
-  const monday = isIsoDay(sp.week) ? mondayOf(sp.week) : defaultWeek(today);
+  const { weekStart: firstDay } = await getCompany(user);
+  const start = isIsoDay(sp.week) ? weekStartOf(sp.week, firstDay) : defaultWeek(today, firstDay);
   const header = (
     <PageHeader
       title="Planning"
@@ -43,7 +45,7 @@ export default async function Page({ searchParams }: { searchParams: Promise<{ w
     );
   }
   const [batches, recipes, facts, settings, kitchens] = await Promise.all([
-    listBatches(user, { kitchen: kitchen.code, from: monday, to: addDays(monday, 6) }),
+    listBatches(user, { kitchen: kitchen.code, from: start, to: addDays(start, 6) }),
     listRecipes(user),
     itemFacts(user),
     getCureSettings(user),
@@ -55,9 +57,10 @@ export default async function Page({ searchParams }: { searchParams: Promise<{ w
     <>
       {header}
       <WeekPlanner
-        key={`${kitchen.code}:${monday}`}
+        key={`${kitchen.code}:${start}`}
         kitchen={{ code: kitchen.code, name: kitchen.name }}
-        monday={monday}
+        start={start}
+        firstDay={firstDay}
         today={today}
         initialBatches={batches}
         recipes={recipes}

@@ -6,11 +6,15 @@ import { requireUser } from "@/lib/auth/session";
 import { updateCompany, updateCureSettings } from "@/lib/data/companies";
 import { companyCureSettingsInput, companyUpdateInput } from "@/lib/validation/company";
 
-export type CompanyFormState = FormState<{ name?: string; timeZone?: string; currency?: string }>;
+export type CompanyFormState = FormState<{ name?: string; timeZone?: string; currency?: string; weekStart?: string; approvalThreshold?: string }>;
 
 export async function updateCompanyAction(_prev: CompanyFormState, form: FormData): Promise<CompanyFormState> {
   const user = await requireUser();
-  const values = { name: String(form.get("name") ?? ""), timeZone: String(form.get("timeZone") ?? ""), currency: String(form.get("currency") ?? "") };
+  const values = {
+    name: String(form.get("name") ?? ""), timeZone: String(form.get("timeZone") ?? ""), currency: String(form.get("currency") ?? ""),
+    weekStart: String(form.get("weekStart") ?? ""),
+    approvalThreshold: String(form.get("approvalThreshold") ?? ""),
+  };
   const parsed = companyUpdateInput.safeParse(values);
   if (!parsed.success) return { fieldErrors: zodErrors(parsed.error), values };
   try {
@@ -20,7 +24,7 @@ export async function updateCompanyAction(_prev: CompanyFormState, form: FormDat
     if (!state) throw e;
     return { ...state, values };
   }
-  // the company name is in every page's header
+  // the company name is in every page's header (and the week start shapes the planner)
   revalidatePath("/", "layout");
   return { ok: true, message: "Company details saved." };
 }

@@ -17,8 +17,11 @@ export default async function CompanySettingsPage() {
   const [company, cure] = await Promise.all([getCompany(user), getCureSettings(user)]);
   return (
     <>
-      <PageHeader title="Company" description="The name people see, the clock the day runs on, and the currency prices are kept in." />
-      <CompanyForm company={{ name: company.name, timeZone: company.timeZone, currency: company.currency }} zones={timeZoneOptions(company.timeZone)} />
+      <PageHeader title="Company" description="The name people see, the clock the day runs on, the currency prices are kept in, the day the planning week begins, and the largest order a buyer approves alone." />
+      <CompanyForm
+        company={{ name: company.name, timeZone: company.timeZone, currency: company.currency, weekStart: company.weekStart, approvalThreshold: company.approvalThreshold }}
+        zones={timeZoneOptions(company.timeZone)}
+      />
       <CureSettingsForm settings={cure} />
     </>
   );

@@ -1,13 +1,15 @@
 "use client";
 
-// The week of one kitchen: each day with its batches (recipe, meat block, status, shortage in
-// words), "Reserve all" for the week with a per-batch report, and "Plan a batch" in a side sheet.
+// The week of one kitchen, from the company's first day of the week: each day with its batches
+// (recipe, meat block, status, shortage in words), "Reserve all" for the week with a summary and a
+// per-batch report (reserved now, already reserved, short of what, skipped), and "Plan a batch" in a
+// side sheet.
 import { useQuery, useQueryClient } from "@tanstack/react-query";
-import { CalendarPlus, ChevronLeft, ChevronRight, CheckCircle2, Loader2, Lock, TriangleAlert, X } from "lucide-react";
+import { CalendarPlus, ChevronLeft, ChevronRight, CheckCircle2, CircleMinus, Loader2, Lock, TriangleAlert, X } from "lucide-react";
 import Link from "next/link";
 import { useMemo, useRef, useState } from "react";
-import { ShortageMarker, shortWords, StatusBadge } from "@/components/planning/batch-badges";
-import { addDays, dayLong, dayShort, weekDays, weekRange, weekWord } from "@/components/planning/dates";
+import { ShortageMarker, shortWords, StatusBadge, statusWord } from "@/components/planning/batch-badges";
+import { addDays, dayLong, dayShort, weekDays, weekRange, weekWord, type WeekStart } from "@/components/planning/dates";
 import { gramsText, quantityText, type UnitsById } from "@/components/planning/quantities";
 import { CureMarker } from "@/components/cure/cure-marker";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -22,12 +24,17 @@ import { PlanBatchForm, type CasingChoice } from "./plan-batch-form";
 
 interface Report {
   range: string;
-  rows: { batch: Batch | undefined; batchId: string; wasReserved: boolean; reserved: boolean; short: ReserveAllResult["batches"][number]["short"] }[];
+  result: ReserveAllResult;
+  /** the week's batches before the call, for each line's units */
+  before: Map<string, Batch>;
 }
 
-export function WeekPlanner({ kitchen, monday, today, initialBatches, recipes, casings, units, unitSystem, scaleResolutionG, kitchenNames, canManage, canWriteRecipes, planRecipe }: {
+export function WeekPlanner({ kitchen, start, firstDay, today, initialBatches, recipes, casings, units, unitSystem, scaleResolutionG, kitchenNames, canManage, canWriteRecipes, planRecipe }: {
   kitchen: { code: string; name: string };
-  monday: string;
+  /** the week's first day (yyyy-mm-dd) */
+  start: string;
+  /** the company's first day of the week */
+  firstDay: WeekStart;
   today: string;
   initialBatches: Batch[];
   recipes: RecipeSummary[];
@@ -40,23 +47,23 @@ export function WeekPlanner({ kitchen, monday, today, initialBatches, recipes, c
   canWriteRecipes: boolean;
   planRecipe?: string;
 }) {
-  const sunday = addDays(monday, 6);
+  const end = addDays(start, 6);
   const queryClient = useQueryClient();
-  const q = useQuery({ ...weekQueryOptions(kitchen.code, monday, sunday), initialData: initialBatches, staleTime: 0 });
+  const q = useQuery({ ...weekQueryOptions(kitchen.code, start, end), initialData: initialBatches, staleTime: 0 });
   const batches = q.data;
-  const days = weekDays(monday);
+  const days = weekDays(start);
   const [planning, setPlanning] = useState<{ day: string; recipe?: string } | null>(canManage && planRecipe ? { day: firstOpenDay(days, today), recipe: planRecipe } : null);
   const [report, setReport] = useState<Report | null>(null);
   const [reserveError, setReserveError] = useState<string>();
   const [reserving, setReserving] = useState(false);
   const reserveKey = useRef<string | null>(null);
 
-  const word = weekWord(monday, today);
-  const range = weekRange(monday);
+  const word = weekWord(start, today, firstDay);
+  const range = weekRange(start);
   const open = batches.filter((b) => b.status === "planned" || b.status === "reserved");
   const toReserve = open.filter((b) => b.status === "planned" && b.plannedFor >= today);
   const shortBatches = open.filter((b) => b.shortLines > 0);
-  const past = sunday < today;
+  const past = end < today;
   const byDay = useMemo(() => new Map(days.map((d) => [d, batches.filter((b) => b.plannedFor === d)])), [batches, days]);
 
   const refresh = async () => {
@@ -69,15 +76,12 @@ export function WeekPlanner({ kitchen, monday, today, initialBatches, recipes, c
     setReserving(true);
     setReserveError(undefined);
     const before = new Map(batches.map((b) => [b.id, b]));
-    const from = monday < today ? today : monday;
+    const from = start < today ? today : start;
     reserveKey.current ??= newIdempotencyKey();
     try {
-      const result = await reserveAll({ kitchen: kitchen.code, from, to: sunday }, reserveKey.current);
+      const result = await reserveAll({ kitchen: kitchen.code, from, to: end }, reserveKey.current);
       reserveKey.current = null;
-      setReport({
-        range: from === monday ? range : `${dayShort(from)} – ${dayShort(sunday)}`,
-        rows: result.batches.map((r) => ({ batch: before.get(r.batchId), batchId: r.batchId, wasReserved: before.get(r.batchId)?.status === "reserved", reserved: r.reserved, short: r.short })),
-      });
+      setReport({ range: from === start ? range : `${dayShort(from)} – ${dayShort(end)}`, result, before });
     } catch (e) {
       if (e instanceof ApiError && e.status !== 0) reserveKey.current = null;
       setReserveError(`Nothing was reserved: ${e instanceof Error ? e.message : "something went wrong."}${e instanceof ApiError && e.status !== 0 ? "" : " Try again: it cannot happen twice."}`);
@@ -91,14 +95,14 @@ export function WeekPlanner({ kitchen, monday, today, initialBatches, recipes, c
     <div className="space-y-5">
       <div className="flex flex-wrap items-center justify-between gap-3">
         <nav aria-label="Weeks" className="flex flex-wrap items-center gap-2">
-          <Link href={`/planning?week=${addDays(monday, -7)}`} className="btn-quiet px-3" aria-label="Previous week">
+          <Link href={`/planning?week=${addDays(start, -7)}`} className="btn-quiet px-3" aria-label="Previous week">
             <ChevronLeft aria-hidden className="h-5 w-5" />
           </Link>
           <h2 className="min-w-[15rem] text-center text-xl font-semibold" aria-live="polite">
             {word ? <span>{word} · </span> : null}
             <span className="font-normal">{range}</span>
           </h2>
-          <Link href={`/planning?week=${addDays(monday, 7)}`} className="btn-quiet px-3" aria-label="Next week">
+          <Link href={`/planning?week=${addDays(start, 7)}`} className="btn-quiet px-3" aria-label="Next week">
             <ChevronRight aria-hidden className="h-5 w-5" />
           </Link>
           {word !== "This week" ? <Link href={`/planning?week=${today}`} className="btn-quiet">This week</Link> : null}
@@ -224,42 +228,62 @@ function BatchRow({ batch: b, unitSystem }: { batch: Batch; unitSystem: UnitSyst
   );
 }
 
+/** "1 reserved now, 1 already reserved, 1 short of stock, 1 skipped" (only the outcomes that happened). */
+function reserveSummary(c: ReserveAllResult["counts"]): string {
+  const parts = [
+    c.reserved ? `${c.reserved} reserved now` : "",
+    c.alreadyReserved ? `${c.alreadyReserved} already reserved` : "",
+    c.short ? `${c.short} short of stock (nothing held for ${c.short === 1 ? "it" : "them"})` : "",
+    c.skipped ? `${c.skipped} skipped (made or cancelled)` : "",
+  ].filter(Boolean);
+  if (!parts.length) return "no batch planned in these days";
+  return c.reserved ? parts.join(", ") : `nothing new to hold: ${parts.join(", ")}`;
+}
+
 function ReserveReport({ report, units, unitSystem, onDismiss }: { report: Report; units: UnitsById; unitSystem: UnitSystem; onDismiss: () => void }) {
   const shortText = (batch: Batch | undefined, s: ReserveAllResult["batches"][number]["short"][number]) => {
     const line = batch?.lines.find((l) => l.position === s.position);
     const f = (v: string) => (line ? quantityText(v, line.item, units, unitSystem) : `${v} ${s.unit}`);
     return `${s.sku} needs ${f(s.needed)}, ${f(s.available)} available`;
   };
-  const reservedNow = report.rows.filter((r) => r.reserved && !r.wasReserved).length;
-  const short = report.rows.filter((r) => !r.reserved).length;
+  const { result } = report;
   return (
     <section aria-label="Reserve all: result" className="panel space-y-2 px-4 py-3">
       <div className="flex items-start justify-between gap-3">
-        <h3 className="font-sans text-base font-semibold">
-          Reserve all, {report.range}: {reservedNow} reserved{short ? `, ${short} short of stock (nothing held for ${short === 1 ? "it" : "them"})` : ""}
-          {report.rows.length === 0 ? ": no planned batch to reserve" : ""}.
-        </h3>
+        <h3 className="font-sans text-base font-semibold">Reserve all, {report.range}: {reserveSummary(result.counts)}.</h3>
         <button type="button" className="btn-quiet -my-1 min-w-touch px-0" onClick={onDismiss} aria-label="Dismiss the result">
           <X aria-hidden className="h-5 w-5" />
         </button>
       </div>
       <ul className="space-y-1.5">
-        {report.rows.map((r) => (
+        {result.batches.map((r) => (
           <li key={r.batchId} className="flex items-start gap-2 text-sm">
-            {r.reserved ? <CheckCircle2 aria-hidden className="mt-0.5 h-4 w-4 shrink-0 text-herb" /> : <TriangleAlert aria-hidden className="mt-0.5 h-4 w-4 shrink-0 text-ember" />}
+            {r.outcome === "reserved" ? (
+              <CheckCircle2 aria-hidden className="mt-0.5 h-4 w-4 shrink-0 text-herb" />
+            ) : r.outcome === "already_reserved" ? (
+              <Lock aria-hidden className="mt-0.5 h-4 w-4 shrink-0 text-herb" />
+            ) : r.outcome === "short" ? (
+              <TriangleAlert aria-hidden className="mt-0.5 h-4 w-4 shrink-0 text-ember" />
+            ) : (
+              <CircleMinus aria-hidden className="mt-0.5 h-4 w-4 shrink-0 text-brine" />
+            )}
             <span>
               <Link href={`/planning/batches/${r.batchId}`} className="font-semibold underline-offset-2 hover:underline">
-                {r.batch ? `${r.batch.recipe.code} · ${dayShort(r.batch.plannedFor)}` : "A batch"}
+                {r.recipeCode} · {dayShort(r.plannedFor)}
               </Link>
               {": "}
-              {r.reserved ? (
-                r.wasReserved ? "already reserved." : "reserved."
-              ) : (
+              {r.outcome === "reserved" ? (
+                "reserved now."
+              ) : r.outcome === "already_reserved" ? (
+                "already reserved, nothing to do."
+              ) : r.outcome === "short" ? (
                 <>
                   <span className="font-semibold text-ember">not reserved, {shortWords(r.short.length)}</span>
                   {" — "}
-                  {r.short.map((s) => shortText(r.batch, s)).join("; ")}.
+                  {r.short.map((s) => shortText(report.before.get(r.batchId), s)).join("; ")}.
                 </>
+              ) : (
+                <span className="text-brine">skipped, {statusWord(r.status).toLowerCase()}.</span>
               )}
             </span>
           </li>

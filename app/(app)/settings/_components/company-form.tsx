@@ -1,10 +1,13 @@
 "use client";
 
 import { useActionState } from "react";
-import { FormMessage, StatusRegion, TextField } from "@/components/ui/field";
+import { describedBy, FieldError, FieldHint, FormMessage, StatusRegion, TextField } from "@/components/ui/field";
 import { TimeZoneSelect } from "@/components/ui/time-zone-select";
 import type { Company } from "@/lib/data/companies";
+import { WEEK_STARTS, type WeekStart } from "@/lib/validation/company";
 import { updateCompanyAction, type CompanyFormState } from "../actions";
+
+const DAY_NAMES: Record<WeekStart, string> = { monday: "Monday", sunday: "Sunday", saturday: "Saturday" };
 
 export function CompanyForm({ company, zones }: { company: Omit<Company, "id">; zones: string[] }) {
   const [state, action, pending] = useActionState<CompanyFormState, FormData>(updateCompanyAction, {});
@@ -22,6 +25,22 @@ export function CompanyForm({ company, zones }: { company: Omit<Company, "id">; 
         name="currency" label="Currency" required defaultValue={v.currency} errors={state.fieldErrors?.currency}
         maxLength={3} autoCapitalize="characters" spellCheck={false} className="max-w-[12rem]"
         hint="Three-letter code, e.g. EUR, GBP or USD."
+      />
+      <div>
+        <label htmlFor="weekStart" className="field-label">Planning weeks begin on</label>
+        <select
+          key={v.weekStart} id="weekStart" name="weekStart" defaultValue={v.weekStart} className="field-input max-w-[12rem]"
+          {...describedBy("weekStart", state.fieldErrors?.weekStart, true)}
+        >
+          {WEEK_STARTS.map((d) => <option key={d} value={d}>{DAY_NAMES[d]}</option>)}
+        </select>
+        <FieldHint id="weekStart">The week planner shows this day and the six after it.</FieldHint>
+        <FieldError id="weekStart" errors={state.fieldErrors?.weekStart} />
+      </div>
+      <TextField
+        name="approvalThreshold" label="Buyers may approve orders up to" inputMode="decimal" required defaultValue={v.approvalThreshold}
+        errors={state.fieldErrors?.approvalThreshold} className="max-w-[12rem]"
+        hint={`A purchase order's total, in ${company.currency}. Above it, a manager or an admin approves the order.`}
       />
       <div className="flex flex-wrap items-center justify-end gap-3">
         <StatusRegion>{state.ok ? state.message : null}</StatusRegion>

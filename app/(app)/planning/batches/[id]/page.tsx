@@ -6,7 +6,7 @@ import { notFound } from "next/navigation";
 import { canSomewhere, can } from "@/lib/auth/permissions";
 import { requireUser } from "@/lib/auth/session";
 import { getBatch } from "@/lib/data/batches";
-import { getCureSettings } from "@/lib/data/companies";
+import { getCompany, getCureSettings } from "@/lib/data/companies";
 import { listKitchens } from "@/lib/data/kitchens";
 import { AppError } from "@/lib/http/errors";
 import { todayIn } from "@/components/planning/dates";
@@ -30,7 +30,9 @@ export default async function BatchPage({ params }: { params: Promise<{ id: stri
     if (e instanceof AppError && e.status === 404) notFound();
     throw e;
   }
-  const [settings, facts, kitchens] = await Promise.all([getCureSettings(user), itemFacts(user), listKitchens(user, { includeArchived: true })]);
+  const [settings, facts, kitchens, company] = await Promise.all([
+    getCureSettings(user), itemFacts(user), listKitchens(user, { includeArchived: true }), getCompany(user),
+  ]);
   return (
     <>
       {/* the sheet is pinned up in the kitchen: a plain page with room at the edges */}
@@ -45,6 +47,8 @@ export default async function BatchPage({ params }: { params: Promise<{ id: stri
         canManage={can(user, "planning.manage", { kitchenId: batch.kitchen.id })}
         canProduce={can(user, "production.post", { kitchenId: batch.kitchen.id })}
         canReleaseHold={can(user, "limits.override", { kitchenId: batch.kitchen.id })}
+        canRequestTransfer={can(user, "transfers.request", { kitchenId: batch.kitchen.id })}
+        firstDay={company.weekStart}
         today={todayIn(user.timeZone)}
         timeZone={user.timeZone}
         printedBy={user.name}

@@ -4,31 +4,36 @@
 // with confirmations where stock is given back or the plan ends, "Record production" (a side sheet)
 // and, once made, what was made (batch code, variance, the cure check on the actual weights, a hold
 // and its release), and Print. Each action sends its own Idempotency-Key, kept only while a retry
-// after a lost answer may need it.
+// after a lost answer may need it. A line short of stock with a transfer suggestion can be asked
+// for in one step (for people who may ask for the batch's kitchen); while that request is open the
+// line says so and links to the Transfers page instead of offering a second one.
 import { useQuery, useQueryClient } from "@tanstack/react-query";
-import { ArrowLeft, Ban, ClipboardCheck, GitBranch, Loader2, Lock, OctagonAlert, Printer, TriangleAlert, Unlock } from "lucide-react";
+import { ArrowLeft, Ban, ClipboardCheck, GitBranch, Loader2, Lock, OctagonAlert, Printer, Send, TriangleAlert, Unlock } from "lucide-react";
 import Link from "next/link";
 import { useEffect, useRef, useState } from "react";
-import { BomTable } from "@/components/planning/bom-table";
+import { BomTable, type TransferSuggestion } from "@/components/planning/bom-table";
 import { ShortageMarker, shortWords, StatusBadge } from "@/components/planning/batch-badges";
 import { ConfirmDialog } from "@/components/planning/confirm-dialog";
 import { CureCheckPanel } from "@/components/planning/cure-check";
-import { dayFull, dayMedium, mondayOf, weekRange } from "@/components/planning/dates";
+import { dayFull, dayMedium, weekRange, weekStartOf, type WeekStart } from "@/components/planning/dates";
 import { ProductionForm } from "@/components/planning/production-form";
 import { ProductionRecord } from "@/components/planning/production-record";
 import { gramsText, metresText, putUpWord, quantityText, type UnitsById } from "@/components/planning/quantities";
 import { PageHeader } from "@/components/shell/page-header";
+import { Badge } from "@/components/ui/badge";
 import { FormMessage } from "@/components/ui/field";
 import { SideSheet } from "@/components/ui/side-sheet";
 import {
-  ApiError, batchQueryOptions, cancelBatch, newIdempotencyKey, planningKeys, releaseBatch, reserveBatch, shortLinesOf, type Batch,
+  ApiError, batchQueryOptions, cancelBatch, newIdempotencyKey, planningKeys, releaseBatch, requestBatchTransfer, reserveBatch, shortLinesOf, type Batch, type BatchLine,
 } from "@/lib/queries/planning";
 import { stockKeys } from "@/lib/queries/stock";
 import { type UnitSystem } from "@/lib/units";
 
 type Action = "reserve" | "release" | "cancel";
 
-export function BatchSheet({ initial, units, untracked, unitSystem, scaleResolutionG, kitchenNames, canManage, canProduce, canReleaseHold, today, timeZone, printedBy, printedAt }: {
+export function BatchSheet({
+  initial, units, untracked, unitSystem, scaleResolutionG, kitchenNames, canManage, canProduce, canReleaseHold, canRequestTransfer, firstDay, today, timeZone, printedBy, printedAt,
+}: {
   initial: Batch;
   units: UnitsById;
   untracked: string[];
@@ -40,6 +45,10 @@ export function BatchSheet({ initial, units, untracked, unitSystem, scaleResolut
   canProduce: boolean;
   /** limits.override in the batch's kitchen: may release a hold */
   canReleaseHold: boolean;
+  /** transfers.request for the batch's kitchen (the one that receives): may ask for a suggested transfer */
+  canRequestTransfer: boolean;
+  /** the company's first day of the week (the link back to the batch's week) */
+  firstDay: WeekStart;
   /** the user's today, yyyy-mm-dd (lots dated before it are expired) */
   today: string;
   /** the user's time zone, for when it was made */
@@ -148,15 +157,90 @@ export function BatchSheet({ initial, units, untracked, unitSystem, scaleResolut
     }
   }
 
+  // asking for a suggested transfer: one request per line and kitchen at a time, its own key kept
+  // only for a retry after a lost answer (so a double click or a retry asks once)
+  const [asking, setAsking] = useState<string | null>(null);
+  const askKeys = useRef<Record<string, string>>({});
+  /** item id -> kitchen code asked, until the refetched batch shows the open request itself */
+  const [asked, setAsked] = useState<Record<string, string>>({});
+  const kitchenLabel = (code: string) => (kitchenNames[code] ? `${kitchenNames[code]} (${code})` : code);
+
+  async function askTransfer(line: BatchLine, s: TransferSuggestion) {
+    if (asking) return;
+    const id = `${line.item.id}:${s.kitchen.code}`;
+    setAsking(id);
+    setError(undefined);
+    setDone(undefined);
+    setDoneHold(false);
+    const key = (askKeys.current[id] ??= newIdempotencyKey());
+    const amount = quantityText(s.quantity, line.item, units, unitSystem);
+    try {
+      await requestBatchTransfer({
+        batch: batch.id, fromKitchen: s.kitchen.code, toKitchen: batch.kitchen.code, item: line.item.id, quantity: s.quantity, unit: line.item.unit,
+        note: `For batch ${batch.recipe.code} on ${dayMedium(batch.plannedFor)}: ${line.item.sku} is short here.`,
+      }, key);
+      delete askKeys.current[id];
+      setAsked((a) => ({ ...a, [line.item.id]: s.kitchen.code }));
+      setDone(`Asked ${kitchenLabel(s.kitchen.code)} for ${amount} of ${line.item.sku}. The request waits on the Transfers page until that kitchen sends it; then reserve this batch.`);
+    } catch (e) {
+      if (!(e instanceof ApiError) || e.status === 0) {
+        setError(`${e instanceof Error ? e.message : "Something went wrong."} Try again: it cannot be asked twice.`);
+        return;
+      }
+      delete askKeys.current[id];
+      if (e.code === "ALREADY_REQUESTED") {
+        const from = (e.details.request as { fromKitchen?: { code?: string } } | undefined)?.fromKitchen?.code;
+        if (from) setAsked((a) => ({ ...a, [line.item.id]: from }));
+        setDone(e.message);
+      } else {
+        setError(e.message);
+      }
+    } finally {
+      setAsking(null);
+      await queryClient.invalidateQueries({ queryKey: planningKeys.batch(batch.id) });
+      // from here the batch's own openRequests say whether a request is open
+      setAsked({});
+    }
+  }
+
+  const transferAction = (line: BatchLine, s: TransferSuggestion) => {
+    const askedOf = line.openRequests[0]?.fromKitchen.code ?? asked[line.item.id];
+    if (askedOf) {
+      if (askedOf.toUpperCase() !== s.kitchen.code.toUpperCase()) return <span className="mt-0.5 block text-brine">Already asked of {kitchenLabel(askedOf)}.</span>;
+      return (
+        <span className="mt-1 flex flex-wrap items-center gap-x-2 gap-y-1">
+          <Badge tone="neutral" icon={<Send />}>Requested</Badge>
+          <Link href="/stock/transfers" className="font-semibold text-paprika underline-offset-2 hover:underline print:hidden">
+            See it on Transfers
+          </Link>
+        </span>
+      );
+    }
+    if (!canRequestTransfer || !open) return null;
+    const id = `${line.item.id}:${s.kitchen.code}`;
+    return (
+      <button
+        type="button"
+        className="btn-quiet mt-1 px-3 text-sm print:hidden"
+        onClick={() => void askTransfer(line, s)}
+        disabled={asking !== null}
+        aria-label={`Request transfer of ${quantityText(s.quantity, line.item, units, unitSystem)} ${line.item.sku} from ${kitchenLabel(s.kitchen.code)}`}
+      >
+        {asking === id ? <Loader2 aria-hidden className="h-4 w-4 animate-spin" /> : <Send aria-hidden className="h-4 w-4" />}
+        Request transfer
+      </button>
+    );
+  };
+
   const casingLine = batch.lines.find((l) => l.role === "casing");
-  const monday = mondayOf(batch.plannedFor);
+  const weekStart = weekStartOf(batch.plannedFor, firstDay);
 
   return (
     <>
       <div className="space-y-6 print:space-y-4">
         <div className="flex flex-wrap items-center justify-between gap-3 print:hidden">
-          <Link href={`/planning?week=${monday}`} className="btn-quiet">
-            <ArrowLeft aria-hidden className="h-5 w-5" /> Week of {weekRange(monday)}
+          <Link href={`/planning?week=${weekStart}`} className="btn-quiet">
+            <ArrowLeft aria-hidden className="h-5 w-5" /> Week of {weekRange(weekStart)}
           </Link>
           <div className="flex flex-wrap gap-2">
             {canProduce && open ? (
@@ -286,6 +370,7 @@ export function BatchSheet({ initial, units, untracked, unitSystem, scaleResolut
             unitSystem={unitSystem}
             scaleResolutionG={scaleResolutionG}
             kitchenNames={kitchenNames}
+            transferAction={transferAction}
           />
           <p className="text-sm text-brine">
             Quantities in each item&rsquo;s unit for your {unitSystem === "us" ? "US" : "metric"} setting; cure in grams, rounded to the kitchen scale toward
