@@ -254,3 +254,51 @@ export interface UploadRow {
   created_by: string | null;
   created_at: Date;
 }
+
+export interface SupplierItemPriceRow {
+  id: string;
+  company_id: string;
+  supplier_item_id: string;
+  /** NUMERIC(20,4), the company's currency, per pack */
+  pack_price: string;
+  /** yyyy-mm-dd */
+  effective_from: string;
+  price_list_import_id: string | null;
+  /** the description as the price list wrote it (text, never evaluated) */
+  listed_description: string | null;
+  created_by: string | null;
+  created_at: Date;
+}
+
+export interface PriceListImportRow {
+  id: string;
+  company_id: string;
+  supplier_id: string;
+  upload_id: string;
+  /** CsvMapping (lib/validation/imports.ts) */
+  mapping: unknown;
+  /** yyyy-mm-dd: for rows without a date of their own */
+  effective_from: string;
+  rows: number;
+  priced: number;
+  raised: number;
+  lowered: number;
+  unchanged: number;
+  first_prices: number;
+  skipped: number;
+  warning_count: number;
+  /** the first 100 warnings: [{row, column, field?, message}] */
+  warnings: unknown;
+  applied_by: string | null;
+  applied_at: Date;
+}
+
+export interface SupplierImportMappingRow {
+  company_id: string;
+  supplier_id: string;
+  /** price_list | delivery_note */
+  kind: string;
+  mapping: unknown;
+  updated_by: string | null;
+  updated_at: Date;
+}

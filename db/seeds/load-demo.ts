@@ -14,6 +14,8 @@
 //   own; the demo lots received from them are linked to them.
 // - Then its demo purchase orders (db/seeds/demo-orders.ts: one sent, one approved, one draft
 //   waiting for a manager), when it has suppliers and no purchase order yet, under a lock of their own.
+// - Then current prices for its supplier items (db/seeds/demo-prices.ts), when it has supplier items
+//   and no price at all, under a lock of their own (not part of DemoLoad: logged only).
 // The stock posts through lib/data, which needs the react-server condition:
 //   node --conditions=react-server --import tsx db/seeds/load-demo.ts   load what is missing
 //   node --import tsx db/seeds/load-demo.ts --print-sign-ins            print the demo sign-ins and exit
@@ -117,6 +119,19 @@ export async function loadDemo(knex: Knex): Promise<DemoLoad> {
     return loadDemoOrders(knex, company.id, today);
   });
   if (orders) console.log(`[hank&lot] demo purchase orders for ${DEMO_COMPANIES[0]!.name}: ${orders.orders} orders, ${orders.sent} sent`);
+  // current prices for the supplier items (the reorder page compares them), when none is known yet
+  const { loadDemoPrices } = await import("./demo-prices");
+  const prices = await knex.transaction(async (trx) => {
+    await trx.raw("select pg_advisory_xact_lock(hashtext('hank-and-lot: demo prices'))");
+    const company = await findDemoCompany(trx);
+    if (!company) return 0;
+    if (!(await trx("supplier_items").where({ company_id: company.id }).first("id"))) return 0;
+    if (await trx("supplier_item_prices").where({ company_id: company.id }).first("id")) return 0;
+    const { time_zone } = await trx("companies").where({ id: company.id }).first("time_zone");
+    const today = new Intl.DateTimeFormat("en-CA", { timeZone: time_zone, year: "numeric", month: "2-digit", day: "2-digit" }).format(new Date());
+    return loadDemoPrices(trx, company.id, today);
+  });
+  if (prices) console.log(`[hank&lot] demo prices for ${DEMO_COMPANIES[0]!.name}: ${prices} supplier items priced`);
   return { companies, stock, recipes, suppliers, orders };
 }
 

@@ -5,6 +5,7 @@ import { requireUser } from "@/lib/auth/session";
 const TABS = [
   { href: "/purchasing", label: "Suppliers" },
   { href: "/purchasing/orders", label: "Orders" },
+  { href: "/purchasing/reorder", label: "Reorder" },
 ];
 
 // Display only: which tabs to show. Every buying page decides its own access.

@@ -109,7 +109,7 @@ export default async function OrdersPage({ searchParams }: { searchParams: Promi
               {page.orders.map((o) => (
                 <tr key={o.id}>
                   <RowHeader>
-                    <Link href={`/purchasing/orders/${o.id}`} className="text-paprika underline-offset-2 hover:underline">{o.number}</Link>
+                    <Link href={`/purchasing/orders/${o.id}`} className="whitespace-nowrap text-paprika underline-offset-2 hover:underline">{o.number}</Link>
                   </RowHeader>
                   <Td>{o.supplier.name}</Td>
                   <Td>{o.kitchen.name}</Td>
