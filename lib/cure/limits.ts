@@ -16,6 +16,11 @@
 //   of 01.7.2). The meat entries for E 249-250 and E 251-252 could NOT be read there, so every EU
 //   figure below comes from a secondary source, is marked unverified and is OFF by default
 //   (trade-facts §2). No EU nitrate figure was found at all, so none is encoded.
+//   Looked again on 2026-12-02 (third session): the stored copies (eur-lex EN/DE/SV/EL/SL, eurlexa,
+//   a Czech reprint) still end before category 08.3; a public code repository quotes the 08.3.2
+//   row ("E 249-250 Nitrites 80 ... except sterilised meat products (Fo > 3,00) Period of
+//   application: from 9 October 2025"), which agrees with the 80 below but is a quotation, not the
+//   annex, so the figures stay unverified and off.
 //
 // US limits are ppm of the salt on the green weight of the meat block (immersion: meat + pickle,
 // FSIS Directive 7620.3 via trade-facts §3). EU limits are mg per kg of the whole batch, as the ion.
