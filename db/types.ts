@@ -13,6 +13,13 @@ export interface CompanyRow {
   week_start: "monday" | "sunday" | "saturday";
   /** NUMERIC(20,4), the company's currency: buyers approve purchase orders up to it */
   approval_threshold: string;
+  /** NUMERIC(6,2): deliveries flag a price further than this percent from the ordered one */
+  receiving_price_tolerance_pct: string;
+  /** the least remaining life of a delivered lot, in days, per category (0: no check) */
+  short_dated_days_cure: number;
+  short_dated_days_casing: number;
+  short_dated_days_spice: number;
+  short_dated_days_ingredient: number;
   created_at: Date;
 }
 

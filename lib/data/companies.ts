@@ -19,10 +19,16 @@ export interface Company {
   weekStart: WeekStart;
   /** buyers approve purchase orders up to this total, managers above it (the currency's decimals) */
   approvalThreshold: string;
+  /** the checks deliveries are reconciled with */
+  receiving: { priceTolerancePercent: string; shortDatedDays: { cure: number; casing: number; spice: number; ingredient: number } };
 }
 
 const toCompany = (c: CompanyRow): Company => ({
   id: c.id, name: c.name, timeZone: c.time_zone, currency: c.currency, weekStart: c.week_start, approvalThreshold: moneyText(c.approval_threshold, c.currency),
+  receiving: {
+    priceTolerancePercent: plain(dec(c.receiving_price_tolerance_pct)),
+    shortDatedDays: { cure: c.short_dated_days_cure, casing: c.short_dated_days_casing, spice: c.short_dated_days_spice, ingredient: c.short_dated_days_ingredient },
+  },
 });
 
 export async function getCompany(actor: CurrentUser): Promise<Company> {
@@ -41,6 +47,8 @@ export async function updateCompany(actor: CurrentUser, input: z.infer<typeof co
     .update({
       name: input.name, time_zone: input.timeZone, currency: input.currency, ...(input.weekStart ? { week_start: input.weekStart } : {}),
       ...(input.approvalThreshold !== undefined ? { approval_threshold: input.approvalThreshold } : {}),
+      ...(input.receiving?.priceTolerancePercent !== undefined ? { receiving_price_tolerance_pct: input.receiving.priceTolerancePercent } : {}),
+      ...Object.fromEntries(Object.entries(input.receiving?.shortDatedDays ?? {}).map(([k, v]) => [`short_dated_days_${k}`, v])),
     })
     .returning<CompanyRow[]>("*");
   return toCompany(row!);

@@ -27,6 +27,8 @@ import type { InvitationSummary } from "../data/invitations";
 import type { Item } from "../data/items";
 import type { Kitchen } from "../data/kitchens";
 import type { Supplier, SupplierItem } from "../data/suppliers";
+import type { ItemPrices } from "../data/item-prices";
+import type { PriceListImport, PriceListResult } from "../data/price-lists";
 import type { PurchaseOrder, PurchaseOrderPage } from "../data/purchase-orders";
 import type { ReorderSuggestions } from "../data/reorder-suggestions";
 import type { TransferLotChoices, TransferRequest } from "../data/transfer-requests";
@@ -49,6 +51,12 @@ import {
 import {
   purchaseOrderCreateInput, purchaseOrderListQuery, purchaseOrderListResponse, purchaseOrderPatchInput, purchaseOrderReasonInput, purchaseOrderResponse,
 } from "../validation/purchase-orders";
+import {
+  deliveryKeyedInput, deliveryLineInput, deliveryLinePatchInput, deliveryListQuery, deliveryListResponse, deliveryPatchInput, deliveryResponse,
+} from "../validation/deliveries";
+import {
+  itemPricesQuery, itemPricesResponse, priceListImportListResponse, priceListResultResponse, priceListUploadQuery,
+} from "../validation/price-lists";
 import { reorderOrdersInput, reorderOrdersResponse, reorderSuggestionsQuery, reorderSuggestionsResponse } from "../validation/reorder";
 import { recipeCreateInput, recipeGetQuery, recipeListQuery, recipeListResponse, recipeResponse, recipeVersionInput } from "../validation/recipes";
 import {
@@ -97,6 +105,9 @@ export type ResponseShapesMatch = [
   Assert<Same<z.infer<typeof recipeListResponse>, { recipes: RecipeSummary[] }>>,
   Assert<Same<z.infer<typeof transferLotChoicesResponse>, TransferLotChoices>>,
   Assert<Same<z.infer<typeof transferRequestResponse>, TransferRequest>>,
+  Assert<Same<z.infer<typeof priceListResultResponse>, PriceListResult>>,
+  Assert<Same<z.infer<typeof priceListImportListResponse>, { imports: PriceListImport[] }>>,
+  Assert<Same<z.infer<typeof itemPricesResponse>, ItemPrices>>,
 ];
 
 // ---------------------------------------------------------------------------------------------
@@ -291,6 +302,22 @@ const bodies = {
       example: [{ supplierItemId: "0b8c4f4e-3f7e-4a51-9d7e-2f1d8f0f6a10", packs: "4" }],
     },
   }),
+  deliveryKeyed: requestBody("DeliveryKeyedInput", deliveryKeyedInput, {
+    kitchen: { description: "The receiving kitchen, by id or code.", example: "YARD" },
+    order: { description: "The purchase order the delivery is against (sent or partly received, this supplier's, this kitchen's). Left out: the supplier's open orders for the kitchen, oldest first." },
+    lines: { description: "Lines as the note has them: quantity in the supplier's packs, unitPrice per pack; may be empty and filled one by one (POST .../lines)." },
+  }),
+  deliveryLine: requestBody("DeliveryLineInput", deliveryLineInput, {
+    source: { description: "keyed (typed in) or scan (read from a case label: GTIN, lot and date)." },
+    quantity: DECIMAL("Packs as the note counts them.", "4"),
+    gtin: { description: "GTIN-8/12/13/14; stored as GTIN-14 and matched to the supplier's items." },
+  }),
+  deliveryPatch: requestBody("DeliveryPatchInput", deliveryPatchInput, {
+    freight: DECIMAL("Freight on the note, in the company's currency (at most its decimals); spread over the accepted lines by value into the landed cost.", "18.00"),
+  }),
+  deliveryLinePatch: requestBody("DeliveryLinePatchInput", deliveryLinePatchInput, {
+    decision: { description: "accept, reject or pending. An expired line cannot be accepted (422 on decision); a line naming no supplier item neither (422 on corrections.supplierItem)." },
+  }),
   purchaseOrderReason: requestBody("PurchaseOrderReasonInput", purchaseOrderReasonInput, {
     reason: { description: "Why, in a few words (1 to 500 characters); kept on the order and shown in its history.", example: "Supplier out of stock until March" },
   }),
@@ -366,6 +393,8 @@ export interface EndpointDoc {
   /** false: reachable without a session (the route's `auth: false`). */
   auth: boolean;
   body?: z.ZodType;
+  /** A multipart/form-data upload the route streams itself (no `body` in route()): the parts. */
+  upload?: z.ZodType;
   idempotent?: boolean;
   params?: z.ZodObject;
   query?: z.ZodObject;
@@ -389,6 +418,7 @@ export const TAGS = [
   { name: "Items", description: "The catalogue: casings, cures, spices and other ingredients, with their purchase packs." },
   { name: "Suppliers", description: "Who we buy from: contacts, lead time, minimum order, and each supplier's items with their SKU, pack and GTIN." },
   { name: "Purchase orders", description: "Orders to suppliers: drafted, approved (buyers up to the company's approval threshold, managers above it), e-mailed to the supplier with a PDF and a CSV, closed short or cancelled." },
+  { name: "Deliveries", description: "Receiving a supplier's delivery note (CSV, keyed in or scanned): each line matched to the open orders with its findings, decided by the buyer, then posted as receipts with the landed cost." },
   { name: "Stock", description: "On hand, reserved and available per kitchen and lot; par levels; lots about to expire." },
   { name: "Ledger", description: "Movements: receipts, transfers, use, waste, adjustments and counts; reversals; count sheets." },
   { name: "GS1 labels", description: "Reading the barcodes on case labels (GS1-128, GS1 DataMatrix, GS1 QR, EAN/UPC, ITF-14) for buying and receiving." },
@@ -424,6 +454,34 @@ const SUPPLIER_ITEM_PARAMS = z.object({
 const ITEM_REF = z.object({
   id: z.string().meta({ description: "The item's id (a UUID) or its SKU. Not in your company: 404.", example: "HOG-32-35" }),
 });
+
+const PRICE_LIST_UPLOAD = z
+  .object({
+    file: z.string().meta({ format: "binary", description: "The price list: CSV or text (.csv, .txt, .tsv), at most 25 MB; UTF-8 with or without a byte-order mark, UTF-16 with one, or Windows-1252; comma, semicolon, tab or | between cells. Its type is read from its first bytes (a workbook renamed .csv is 422)." }),
+    mapping: z.string().optional().meta({
+      description: "The column mapping as JSON (CsvMapping): headerRow (1; 0 = no header), columns (field -> {\"header\": \"Price\"} or {\"column\": 3}) for sku and price (required) and description, pack, packQuantity, packUnit, gtin, currency, effectiveFrom; delimiter (null = detect), decimal \".\" or \",\", thousands \"\", \".\", \",\", \" \" or \"'\", dateFormat. Left out: the mapping remembered for this supplier (saved when a list is applied) if the file has its columns, else one proposed from the headers.",
+      example: "{\"columns\":{\"sku\":{\"header\":\"Artikelnummer\"},\"price\":{\"header\":\"Preis\"}},\"decimal\":\",\",\"thousands\":\".\",\"dateFormat\":\"dd.MM.yyyy\"}",
+    }),
+    effectiveFrom: z.string().optional().meta({ description: "yyyy-mm-dd: when the prices take effect, for rows without a date of their own (an effectiveFrom column). Default the company's today.", example: "2027-01-01" }),
+    dryRun: z.enum(["true", "false"]).optional().meta({ description: "true: the preview; nothing is written but the upload record. Default false (apply). ?dryRun=true on the query does the same." }),
+  })
+  .meta({ id: "PriceListUpload" });
+
+const DELIVERY_UPLOAD = z
+  .object({
+    file: z.string().meta({ format: "binary", description: "The delivery note as CSV, at most 25 MB (encodings and delimiters as for price lists)." }),
+    supplier: z.uuid().meta({ description: "The supplier's id." }),
+    kitchen: z.string().meta({ description: "The receiving kitchen's id or code.", example: "YARD" }),
+    order: z.uuid().optional().meta({ description: "The purchase order (sent or partly received). Left out: the supplier's open orders for the kitchen, oldest first." }),
+    noteNumber: z.string().optional().meta({ description: "The delivery note number, when the file has no column for it." }),
+    noteDate: z.string().optional().meta({ description: "yyyy-mm-dd." }),
+    mapping: z.string().optional().meta({ description: "A CsvMapping as JSON: columns for noteNumber, sku, gtin, description, quantity (packs, required), pack, unitPrice (per pack), lot, date, dateKind. Left out: the one remembered for this supplier, else one proposed from the headers." }),
+  })
+  .meta({ id: "DeliveryUpload" });
+
+const DELIVERY_DOCUMENT_UPLOAD = z
+  .object({ file: z.string().meta({ format: "binary", description: "The paper delivery note: PDF, JPEG, PNG, HEIC or WebP, at most 25 MB." }) })
+  .meta({ id: "DeliveryDocumentUpload" });
 
 const sessionCookieNote = (what: string) => `The ${SESSION_COOKIE} cookie (HttpOnly, SameSite=Lax, Path=/; Secure over HTTPS) ${what}.`;
 
@@ -916,6 +974,22 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
       422: [["VALIDATION", "The item after the change breaks a rule of its category (details.fields names each field)."]],
     },
   },
+  {
+    method: "get", path: "/api/items/{id}/prices", operationId: "getItemPrices", tag: "Items", auth: true,
+    summary: "An item's prices across suppliers",
+    description: "Every supplier item of this item (its alternatives) with the current pack price (the latest on or before `on`), the price per stock unit (6 decimals) and per kg and lb, l and gal, m and yd, or per put-up (hank) and m and yd of casing (4 decimals, half-even), cheapest per stock unit first and flagged; and the price history, newest first, with each change in percent. ?format=csv: the history as CSV, text that a spreadsheet would run neutralised with a leading apostrophe.",
+    params: ITEM_REF,
+    query: itemPricesQuery.extend({
+      on: itemPricesQuery.shape.on.meta({ description: "yyyy-mm-dd: the day current prices are for. Default the company's today.", example: "2027-02-01" }),
+      format: itemPricesQuery.shape.format.meta({ description: "json (default) or csv." }),
+    }),
+    success: { status: 200, description: "The prices (text/csv with format=csv).", schema: itemPricesResponse },
+    errors: {
+      403: [PURCHASING_READ],
+      404: [["NOT_FOUND", "No such item in your company."]],
+      422: [["VALIDATION", "A query parameter that is not valid (details.fields)."]],
+    },
+  },
   // Suppliers -----------------------------------------------------------------------------
   {
     method: "get", path: "/api/suppliers", operationId: "listSuppliers", tag: "Suppliers", auth: true,
@@ -1012,6 +1086,34 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
       404: [["NOT_FOUND", "No such item of this supplier in your company."]],
       409: [["CONFLICT", "The supplier already has an item with this SKU (details.fields.sku) or this GTIN (details.fields.gtin)."]],
       422: [["VALIDATION", "As when adding: item, packUnit or gtin (details.fields)."]],
+    },
+  },
+  {
+    method: "get", path: "/api/suppliers/{id}/price-lists", operationId: "listPriceLists", tag: "Suppliers", auth: true,
+    summary: "A supplier's applied price lists",
+    description: "The price lists applied for this supplier, newest first (at most 200): the file, the mapping it was read with, the default effective date, the counts (up, down, unchanged, first prices, unknown SKUs skipped) and the first 100 warnings.",
+    params: idParam("supplier"),
+    success: { status: 200, description: "The applied price lists.", schema: priceListImportListResponse },
+    errors: { 403: [PURCHASING_READ], 404: [["NOT_FOUND", "No such supplier in your company."]] },
+  },
+  {
+    method: "post", path: "/api/suppliers/{id}/price-lists", operationId: "importPriceList", tag: "Suppliers", auth: true,
+    summary: "Preview or apply a price list (CSV)",
+    description: "Streams the file (multipart/form-data, field \"file\"), reads it through the column mapping and checks every row against the supplier's items by SKU (case-insensitive). Row findings name the spreadsheet row and column: an unknown SKU is a warning (the row is skipped); the same SKU twice, a price of 0 or below or with more than 4 decimals, another currency than the company's, a bad GTIN check digit, or a pack size/unit that does not convert to the item's stock unit are errors; a pack that converts but differs from the one on record, or another valid GTIN, is a warning. dryRun=true answers the preview (summary, errors, warnings, and each change up or down in percent and per unit) and writes nothing but the upload record. Applying is all or nothing: any row error is 422 with the same details and nothing written; otherwise every price is written with its effective date (a price already set for that supplier item and date is replaced), the import recorded and the mapping remembered for the supplier. The same file (SHA-256) applied again for the same supplier answers 200 already_applied with the earlier import and posts nothing; this, not an Idempotency-Key, is what makes a retry safe. Text cells are kept as text exactly as sent, never evaluated.",
+    params: idParam("supplier"),
+    query: priceListUploadQuery.extend({ dryRun: priceListUploadQuery.shape.dryRun.meta({ description: "true: the preview (as the form field)." }) }),
+    upload: PRICE_LIST_UPLOAD,
+    success: { status: 201, description: "Applied (201); a preview or a file already applied answers 200 with the same shape (status says which).", schema: priceListResultResponse },
+    errors: {
+      400: [["BAD_REQUEST", "The multipart body is incomplete or malformed."]],
+      403: [PURCHASING_MANAGE, ["FORBIDDEN", "Refused before any of the body is read."]],
+      404: [["NOT_FOUND", "No such supplier in your company (refused before any of the body is read)."]],
+      409: [["PRICES_CHANGED", "A price for one of the items and dates was written by someone else while the list was applied; nothing was written. Apply it again."]],
+      413: [["PAYLOAD_TOO_LARGE", "The file is larger than 25 MB; reading stops there and nothing is stored."]],
+      415: [["UNSUPPORTED_MEDIA_TYPE", "The body is not multipart/form-data."]],
+      422: [
+        ["VALIDATION", "details.fields.file: the file is not CSV text (what it is instead), no column matches a price-list field (\"No matching columns\", with details.file: the headers found and the first rows), or, when applying, the rows' errors (details also carries the whole result: summary, errors [{row, column, field, message}], warnings, changes). details.fields.mapping / effectiveFrom / dryRun: a text field that is not valid."],
+      ],
     },
   },
   // Purchase orders -----------------------------------------------------------------------
@@ -1127,6 +1229,84 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
     params: idParam("purchase order"),
     success: { status: 200, description: "The CSV.", schema: CSV_FILE, mediaType: "text/csv" },
     errors: { 403: [PURCHASING_READ], 404: [ORDER_NOT_FOUND] },
+  },
+  // Deliveries ----------------------------------------------------------------------------
+  {
+    method: "get", path: "/api/deliveries", operationId: "listDeliveries", tag: "Deliveries", auth: true,
+    summary: "Deliveries", description: "Drafts and posted deliveries, newest first (at most 200).",
+    query: deliveryListQuery,
+    success: { status: 200, description: "The deliveries.", schema: deliveryListResponse },
+    errors: { 403: [["FORBIDDEN", "Your role may not receive stock (admins, managers and buyers only), or not into this kitchen."]] },
+  },
+  {
+    method: "post", path: "/api/deliveries", operationId: "uploadDelivery", tag: "Deliveries", auth: true,
+    upload: DELIVERY_UPLOAD,
+    summary: "Reconcile a delivery note CSV",
+    description: "multipart/form-data: the CSV in `file` (at most 25 MB; csv), and text fields `supplier` (id), `kitchen` (id or code), `order` (id, optional), `noteNumber`, `noteDate` (yyyy-mm-dd) and `mapping` (a CsvMapping as JSON: columns for noteNumber, sku, gtin, description, quantity (packs), pack, unitPrice (per pack), lot, date, dateKind; left out: the mapping remembered for this supplier, else one proposed from the headers). Makes a draft delivery: every line matched by supplier SKU (case-insensitive) or GTIN to the supplier's items and to the open order lines, with its findings (as_ordered, short, over, different_item, not_on_order, price_differs beyond the company's tolerance, lot_missing, date_missing, expired, short_dated). A row that cannot be read is 422 with `details.errors` [{row, column, field, message}] and nothing is made. The same file again: the draft made from it (200, duplicate true), or 409 when it was posted.",
+    success: { status: 201, description: "The draft delivery with its reconciliation (200 with duplicate true for a file sent before).", schema: deliveryResponse },
+    errors: {
+      403: [["FORBIDDEN", "Your role may not receive stock (admins, managers and buyers only), or not into this kitchen."]],
+      409: [["DELIVERY_ALREADY_POSTED", "This file, or a note with this number from this supplier, was already posted: details.deliveryId names it."]],
+      413: [["PAYLOAD_TOO_LARGE", "The file is larger than 25 MB; nothing was stored."]],
+      415: [["UNSUPPORTED_MEDIA_TYPE", "Not multipart/form-data."]],
+      422: [["VALIDATION", "A bad field (supplier, kitchen, order, mapping), a file that is not CSV, or rows that cannot be read (details.errors with row and column)."]],
+    },
+  },
+  {
+    method: "post", path: "/api/deliveries/keyed", operationId: "createKeyedDelivery", tag: "Deliveries", auth: true, idempotent: true,
+    summary: "Key in a delivery", description: "A draft delivery from lines typed in (or none yet, to scan them one by one), reconciled like a CSV.",
+    body: bodies.deliveryKeyed,
+    success: { status: 201, description: "The draft delivery.", schema: deliveryResponse },
+    errors: { 403: [["FORBIDDEN", "Your role may not receive stock (admins, managers and buyers only), or not into this kitchen."]], 409: [["DELIVERY_ALREADY_POSTED", "A note with this number from this supplier was already posted."]] },
+  },
+  {
+    method: "get", path: "/api/deliveries/{id}", operationId: "getDelivery", tag: "Deliveries", auth: true,
+    summary: "A delivery", description: "The delivery with every line, its match and its findings.",
+    params: idParam("delivery"),
+    success: { status: 200, description: "The delivery.", schema: deliveryResponse },
+    errors: { 403: [["FORBIDDEN", "Your role may not receive stock (admins, managers and buyers only), or not into this kitchen."]], 404: [["NOT_FOUND", "No such delivery in your company (another company's is 404 too)."]] },
+  },
+  {
+    method: "patch", path: "/api/deliveries/{id}", operationId: "updateDelivery", tag: "Deliveries", auth: true,
+    summary: "Note number, date and freight", description: "Changes a draft's note number, note date or freight.",
+    params: idParam("delivery"), body: bodies.deliveryPatch,
+    success: { status: 200, description: "The delivery.", schema: deliveryResponse },
+    errors: { 403: [["FORBIDDEN", "Your role may not receive stock (admins, managers and buyers only), or not into this kitchen."]], 404: [["NOT_FOUND", "No such delivery in your company (another company's is 404 too)."]], 409: [["DELIVERY_POSTED", "The delivery is already posted and cannot be changed."], ["DELIVERY_ALREADY_POSTED", "A note with this number from this supplier was already posted."]] },
+  },
+  {
+    method: "post", path: "/api/deliveries/{id}/lines", operationId: "addDeliveryLine", tag: "Deliveries", auth: true, idempotent: true,
+    summary: "Add a line", description: "A line keyed in or read from a case label (GTIN, lot, date); the delivery is reconciled again.",
+    params: idParam("delivery"), body: bodies.deliveryLine,
+    success: { status: 201, description: "The delivery.", schema: deliveryResponse },
+    errors: { 403: [["FORBIDDEN", "Your role may not receive stock (admins, managers and buyers only), or not into this kitchen."]], 404: [["NOT_FOUND", "No such delivery in your company (another company's is 404 too)."]], 409: [["DELIVERY_POSTED", "The delivery is already posted and cannot be changed."]] },
+  },
+  {
+    method: "patch", path: "/api/deliveries/{id}/lines/{lineId}", operationId: "updateDeliveryLine", tag: "Deliveries", auth: true,
+    summary: "Decide or correct a line", description: "Accept, reject or correct (supplier item, quantity, price, lot, date) one line; the findings are worked out again for every line.",
+    params: z.object({ id: z.uuid().meta({ description: "The delivery's id." }), lineId: z.uuid().meta({ description: "The line's id." }) }),
+    body: bodies.deliveryLinePatch,
+    success: { status: 200, description: "The delivery.", schema: deliveryResponse },
+    errors: { 403: [["FORBIDDEN", "Your role may not receive stock (admins, managers and buyers only), or not into this kitchen."]], 404: [["NOT_FOUND", "No such delivery in your company (another company's is 404 too)."]], 409: [["DELIVERY_POSTED", "The delivery is already posted and cannot be changed."]], 422: [["VALIDATION", "An expired line cannot be accepted; a line without a supplier item neither."]] },
+  },
+  {
+    method: "post", path: "/api/deliveries/{id}/document", operationId: "attachDeliveryDocument", tag: "Deliveries", auth: true,
+    upload: DELIVERY_DOCUMENT_UPLOAD,
+    summary: "Attach the delivery note", description: "multipart/form-data with the note as PDF, JPEG, PNG, HEIC or WebP in `file` (at most 25 MB).",
+    params: idParam("delivery"),
+    success: { status: 200, description: "The delivery.", schema: deliveryResponse },
+    errors: { 403: [["FORBIDDEN", "Your role may not receive stock (admins, managers and buyers only), or not into this kitchen."]], 404: [["NOT_FOUND", "No such delivery in your company (another company's is 404 too)."]], 413: [["PAYLOAD_TOO_LARGE", "Larger than 25 MB."]], 415: [["UNSUPPORTED_MEDIA_TYPE", "Not multipart/form-data."]], 422: [["VALIDATION", "Not a PDF or photo."]] },
+  },
+  {
+    method: "post", path: "/api/deliveries/{id}/post", operationId: "postDelivery", tag: "Deliveries", auth: true, idempotent: true,
+    summary: "Post the delivery",
+    description: "One transaction: receipts into the delivery's kitchen for the accepted lines (lots with supplier, lot code, date and the landed unit cost per stock unit = (line value + freight share by value) / quantity), the order lines' received quantities and the orders' status (partly received or received). Every line must be decided (422 naming lines.N.decision); accepted lot-tracked lines (every cure) need a lot and date. Posting again, also at the same time, answers the posted delivery and posts nothing.",
+    params: idParam("delivery"),
+    success: { status: 200, description: "The posted delivery.", schema: deliveryResponse },
+    errors: {
+      403: [["FORBIDDEN", "Your role may not receive stock (admins, managers and buyers only), or not into this kitchen."]], 404: [["NOT_FOUND", "No such delivery in your company (another company's is 404 too)."]],
+      409: [["DELIVERY_ALREADY_POSTED", "A note with this number from this supplier was posted meanwhile."]],
+      422: [["VALIDATION", "Lines still pending, accepted lines without lot, date or price, an expired line accepted, or no note number."]],
+    },
   },
   // Reorder suggestions -------------------------------------------------------------------
   {
@@ -1325,6 +1505,7 @@ function buildRegistry(): OpenAPIRegistry {
         ...(ep.query ? { query: ep.query } : {}),
         ...(ep.idempotent ? { headers: IDEMPOTENCY_HEADER } : {}),
         ...(ep.body ? { body: { required: true, content: { "application/json": { schema: ep.body } } } } : {}),
+        ...(ep.upload ? { body: { required: true, content: { "multipart/form-data": { schema: ep.upload } } } } : {}),
       },
       responses,
     });

@@ -15,6 +15,16 @@ export const approvalThreshold = z
   .trim()
   .regex(/^\d{1,16}(\.\d{1,4})?$/, { error: "Use a plain amount such as 500 or 500.00, without the currency sign." });
 
+/** Receiving checks on deliveries (companies.receiving_price_tolerance_pct, short_dated_days_*). */
+const shortDatedDays = z.number({ error: "Days as a whole number, e.g. 90." }).int("Days as a whole number, e.g. 90.").min(0).max(3650);
+export const receivingSettings = z.object({
+  /** a delivered price further than this percent from the ordered one is flagged (default 2) */
+  priceTolerancePercent: z.string({ error: "Send the percent as a decimal string, e.g. \"2\"." }).trim().regex(/^\d{1,3}(\.\d{1,2})?$/, "A percent such as 2 or 2.5.")
+    .refine((v) => Number.parseFloat(v) <= 100, "At most 100 %.").optional(),
+  /** the least remaining life a delivered lot may have, per category, in days (0: no check) */
+  shortDatedDays: z.object({ cure: shortDatedDays, casing: shortDatedDays, spice: shortDatedDays, ingredient: shortDatedDays }).partial().optional(),
+});
+
 export const companyUpdateInput = z.object({
   name: z.string().trim().min(1, "Enter the company name.").max(120),
   timeZone,
@@ -23,6 +33,8 @@ export const companyUpdateInput = z.object({
   weekStart: weekStart.optional(),
   /** buyers approve purchase orders up to this total, managers above it; left out: unchanged */
   approvalThreshold: approvalThreshold.optional(),
+  /** receiving checks for deliveries; left out: unchanged */
+  receiving: receivingSettings.optional(),
 });
 
 /** The cure calculator's company settings (Settings > Company). */

@@ -77,6 +77,11 @@ export const companyResponse = z
     currency: z.string().meta({ description: "ISO 4217 code.", example: "EUR" }),
     weekStart: z.enum(WEEK_STARTS).meta({ description: "The first day of the planning week: the week planner shows that day and the six after it. Default monday." }),
     approvalThreshold: z.string().meta({ description: "Buyers approve purchase orders up to this total, managers and admins above it; in the company's currency with its decimals. Default 500. A decimal string.", example: "500.00" }),
+    receiving: z.object({
+      priceTolerancePercent: z.string().meta({ description: "Deliveries flag a price further than this percent from the ordered price (per stock unit). Default 2. A decimal string.", example: "2" }),
+      shortDatedDays: z.object({ cure: z.number().int(), casing: z.number().int(), spice: z.number().int(), ingredient: z.number().int() })
+        .meta({ description: "The least remaining life, in days, a delivered lot may have per category before it is flagged short-dated (defaults cure 90, casing 60, spice 180, ingredient 0 = no check)." }),
+    }),
   })
   .meta({ id: "Company" });
 

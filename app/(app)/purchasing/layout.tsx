@@ -6,6 +6,7 @@ const TABS = [
   { href: "/purchasing", label: "Suppliers" },
   { href: "/purchasing/orders", label: "Orders" },
   { href: "/purchasing/reorder", label: "Reorder" },
+  { href: "/purchasing/deliveries", label: "Deliveries" },
 ];
 
 // Display only: which tabs to show. Every buying page decides its own access.

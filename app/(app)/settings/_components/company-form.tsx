@@ -42,6 +42,19 @@ export function CompanyForm({ company, zones }: { company: Omit<Company, "id">; 
         errors={state.fieldErrors?.approvalThreshold} className="max-w-[12rem]"
         hint={`A purchase order's total, in ${company.currency}. Above it, a manager or an admin approves the order.`}
       />
+      <fieldset className="flex flex-col gap-3">
+        <legend className="field-label">Checking deliveries</legend>
+        <TextField
+          name="priceTolerancePercent" label="Flag a delivered price more than this % off the order" inputMode="decimal"
+          defaultValue={state.values?.priceTolerancePercent ?? company.receiving.priceTolerancePercent} errors={state.fieldErrors?.priceTolerancePercent} className="max-w-[12rem]"
+        />
+        <p className="text-sm text-brine">Flag a lot as short-dated when it has fewer days of life left than:</p>
+        <div className="flex flex-wrap gap-4">
+          <TextField name="shortDatedCure" label="Cures (days)" inputMode="numeric" defaultValue={state.values?.shortDatedCure ?? String(company.receiving.shortDatedDays.cure)} errors={state.fieldErrors?.shortDatedCure} className="max-w-[8rem]" />
+          <TextField name="shortDatedCasing" label="Casings (days)" inputMode="numeric" defaultValue={state.values?.shortDatedCasing ?? String(company.receiving.shortDatedDays.casing)} errors={state.fieldErrors?.shortDatedCasing} className="max-w-[8rem]" />
+          <TextField name="shortDatedSpice" label="Spices (days)" inputMode="numeric" defaultValue={state.values?.shortDatedSpice ?? String(company.receiving.shortDatedDays.spice)} errors={state.fieldErrors?.shortDatedSpice} className="max-w-[8rem]" />
+        </div>
+      </fieldset>
       <div className="flex flex-wrap items-center justify-end gap-3">
         <StatusRegion>{state.ok ? state.message : null}</StatusRegion>
         <button type="submit" className="btn-primary" disabled={pending}>{pending ? "Saving…" : "Save"}</button>

@@ -136,6 +136,12 @@ export function SupplierView({ supplier, supplierItems, catalogue, canManage, un
                         {si.item.category === "cure" ? <CureMarker /> : null}
                       </span>
                       <span className="block text-sm text-brine">{si.item.name}{si.item.archived ? " (archived)" : ""}</span>
+                      <Link
+                        href={`/purchasing/prices/${si.item.id}`} aria-label={`Prices of ${si.item.sku} from every supplier`}
+                        className="text-sm font-semibold text-brine underline decoration-brine-line underline-offset-4 hover:text-pepper"
+                      >
+                        Prices from every supplier
+                      </Link>
                     </Td>
                     {canManage ? (
                       <Td action>
