@@ -20,6 +20,8 @@ export interface CompanyRow {
   short_dated_days_casing: number;
   short_dated_days_spice: number;
   short_dated_days_ingredient: number;
+  /** the stand-in scanners type for GS on case labels (1-8 characters); null: none */
+  scan_separator: string | null;
   created_at: Date;
 }
 

@@ -3,7 +3,8 @@
 // A field for a case-label scan: a keyboard-wedge scanner types the barcode and presses Enter; the
 // API reads it (lib/gs1) and the field shows the item's GTIN, lot, dates and weight, or what is
 // wrong with the scan. Scanners that send the group separator as Ctrl+] get an ASCII 29 inserted;
-// those that type another character instead need it passed as `separator` (company setting, later).
+// those that type another character use the company's stand-in (Settings > Company: the server applies
+// it when no `separator` is passed), or pass `separator` to override it.
 // The decoded label goes to onDecoded for the page to match against supplier items and lots. Not a
 // <form> of its own (Enter reads the scan), so it can sit inside a receipt form.
 import { ScanBarcode } from "lucide-react";

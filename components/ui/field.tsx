@@ -85,3 +85,27 @@ export function StatusRegion({ children, className }: { children?: ReactNode; cl
     </div>
   );
 }
+
+/** The "is this record in use" checkbox at the foot of an edit sheet (archived, active, still sold). */
+export function StatusCheckbox({ id, name, label, defaultChecked, hint, errors }: {
+  id: string;
+  name: string;
+  label: string;
+  defaultChecked: boolean;
+  hint: ReactNode;
+  errors?: string[];
+}) {
+  return (
+    <fieldset>
+      <legend className="field-label">Status</legend>
+      <label className="flex min-h-touch cursor-pointer items-start gap-3 rounded-md border border-brine-line px-3 py-2.5 hover:bg-salt">
+        <input type="checkbox" name={name} defaultChecked={defaultChecked} className="mt-0.5 h-5 w-5 accent-paprika" {...describedBy(id, errors, true)} />
+        <span>
+          <span className="block font-semibold">{label}</span>
+          <FieldHint id={id}>{hint}</FieldHint>
+        </span>
+      </label>
+      <FieldError id={id} errors={errors} />
+    </fieldset>
+  );
+}

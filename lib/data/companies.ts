@@ -21,6 +21,8 @@ export interface Company {
   approvalThreshold: string;
   /** the checks deliveries are reconciled with */
   receiving: { priceTolerancePercent: string; shortDatedDays: { cure: number; casing: number; spice: number; ingredient: number } };
+  /** what the company's scanners type instead of GS on case labels; null: none */
+  scanSeparator: string | null;
 }
 
 const toCompany = (c: CompanyRow): Company => ({
@@ -29,6 +31,7 @@ const toCompany = (c: CompanyRow): Company => ({
     priceTolerancePercent: plain(dec(c.receiving_price_tolerance_pct)),
     shortDatedDays: { cure: c.short_dated_days_cure, casing: c.short_dated_days_casing, spice: c.short_dated_days_spice, ingredient: c.short_dated_days_ingredient },
   },
+  scanSeparator: c.scan_separator,
 });
 
 export async function getCompany(actor: CurrentUser): Promise<Company> {
@@ -49,6 +52,7 @@ export async function updateCompany(actor: CurrentUser, input: z.infer<typeof co
       ...(input.approvalThreshold !== undefined ? { approval_threshold: input.approvalThreshold } : {}),
       ...(input.receiving?.priceTolerancePercent !== undefined ? { receiving_price_tolerance_pct: input.receiving.priceTolerancePercent } : {}),
       ...Object.fromEntries(Object.entries(input.receiving?.shortDatedDays ?? {}).map(([k, v]) => [`short_dated_days_${k}`, v])),
+      ...(input.scanSeparator !== undefined ? { scan_separator: input.scanSeparator } : {}),
     })
     .returning<CompanyRow[]>("*");
   return toCompany(row!);

@@ -25,10 +25,11 @@ import type { Knex } from "knex";
 import { db } from "../../db/client";
 import type { DateKind, ItemCategory, StockUnit } from "../../db/types";
 import { assertCan } from "../auth/assert";
+import { can } from "../auth/permissions";
 import type { CurrentUser } from "../auth/current-user";
 import { CURE_CAUTION } from "../cure/caution";
 import { normalizeGtin } from "../gs1/gtin";
-import { AppError, conflict, notFound, validation } from "../http/errors";
+import { AppError, conflict, forbidden, notFound, validation } from "../http/errors";
 import { importCsv, proposeDateFormat, proposeMapping, proposeNumberFormat, sniffCsv, type CsvProblem, type ImportRow, type RowIssue } from "../import";
 import { DEFAULT_RECEIVING_RULES, findingsFor, landedUnitCosts, type DeliveryFinding, type ReceivingRules } from "../purchasing/delivery-findings";
 import { DELIVERY_NOTE_FIELDS, dateKindFrom, type DeliveryNoteField } from "../purchasing/delivery-note-fields";
@@ -693,6 +694,41 @@ export async function attachDeliveryDocument(actor: CurrentUser, id: string, req
   const { upload } = await receiveUpload(actor, req, "delivery_note", { allowed: DOCUMENT_FILE_TYPES });
   await db()("deliveries").where({ company_id: actor.companyId, id }).update({ document_upload_id: upload.id, updated_at: db().fn.now() });
   return describeDelivery(db(), actor.companyId, id);
+}
+
+/** The stored delivery note document, for GET /api/deliveries/{id}/document. */
+export interface DeliveryDocumentFile {
+  path: string;
+  filename: string;
+  mediaType: string;
+  size: number;
+}
+
+/**
+ * GET /api/deliveries/{id}/document: the attached PDF or photo. Those who read purchasing
+ * (purchasing.read, any kitchen) or receive into the delivery's kitchen; 404 for another company's
+ * delivery and when none is attached.
+ */
+export async function deliveryDocument(actor: CurrentUser, id: string): Promise<DeliveryDocumentFile> {
+  if (!isUuid(id)) throw notFound("Delivery");
+  const d: { kitchen_id: string; document_upload_id: string | null } | undefined = await db()("deliveries")
+    .where({ company_id: actor.companyId, id })
+    .first("kitchen_id", "document_upload_id");
+  if (!d) throw notFound("Delivery");
+  if (!can(actor, "purchasing.read") && !can(actor, "stock.receive", { kitchenId: d.kitchen_id })) {
+    throw forbidden("Your role may not see deliveries (purchasing.read, or stock.receive in this kitchen).");
+  }
+  if (!d.document_upload_id) throw new AppError(404, "NOT_FOUND", "No delivery note document is attached to this delivery.");
+  const up: { sha256: string; filename: string; media_type: string; size: string } | undefined = await db()("uploads")
+    .where({ company_id: actor.companyId, id: d.document_upload_id })
+    .first("sha256", "filename", "media_type", "size");
+  if (!up) throw new AppError(404, "NOT_FOUND", "No delivery note document is attached to this delivery.");
+  return {
+    path: uploadFilePath(actor.companyId, { sha256: up.sha256, mediaType: up.media_type }),
+    filename: up.filename,
+    mediaType: up.media_type,
+    size: Number(up.size),
+  };
 }
 
 // ---------------------------------------------------------------------------------------------

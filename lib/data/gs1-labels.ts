@@ -1,7 +1,8 @@
 // Reading a GS1 case label for POST /api/gs1/parse: who may, which "today" sets the century of
-// two-digit years, and the parser's errors as 422s naming what is wrong. Reads and writes nothing
-// in the database (yet: a company-wide stand-in separator would be read here).
+// two-digit years, which stand-in separator applies (the request's, else the company's
+// companies.scan_separator), and the parser's errors as 422s naming what is wrong. Writes nothing.
 import "server-only";
+import { db } from "../../db/client";
 import type { CurrentUser } from "../auth/current-user";
 import { can } from "../auth/permissions";
 import { parseGs1, Gs1ParseError, type Gs1Label } from "../gs1/parse";
@@ -23,10 +24,18 @@ function todayIn(timeZone: string, now: Date): string {
   return `${get("year")}-${get("month")}-${get("day")}`;
 }
 
-export function parseLabel(actor: CurrentUser, input: Gs1ParseInput, now = new Date()): Gs1Label {
+/** The stand-in the company's scanners type for GS (Settings > Company), or undefined for none. */
+async function companySeparator(companyId: string): Promise<string | undefined> {
+  const row: { scan_separator: string | null } | undefined = await db()("companies").where({ id: companyId }).first("scan_separator");
+  return row?.scan_separator ?? undefined;
+}
+
+export async function parseLabel(actor: CurrentUser, input: Gs1ParseInput, now = new Date()): Promise<Gs1Label> {
   if (!canReadLabels(actor)) throw forbidden("Your role does not buy or receive stock (purchasing.read or stock.receive).");
+  // the request's own stand-in wins; the company's applies only when none is sent
+  const separator = input.separator ?? (await companySeparator(actor.companyId));
   try {
-    return parseGs1(input.data, { separator: input.separator, today: todayIn(actor.timeZone, now) });
+    return parseGs1(input.data, { separator, today: todayIn(actor.timeZone, now) });
   } catch (e) {
     if (e instanceof Gs1ParseError) {
       const field = e.code === "BAD_SEPARATOR" ? "separator" : "data";

@@ -33,6 +33,7 @@ import type { PurchaseOrder, PurchaseOrderPage } from "../data/purchase-orders";
 import type { ReorderSuggestions } from "../data/reorder-suggestions";
 import type { TransferLotChoices, TransferRequest } from "../data/transfer-requests";
 import type { UserSummary } from "../data/users";
+import { DOCUMENT_FILE_TYPES, FILE_TYPES } from "../uploads/file-types";
 import { invitationAcceptInput, passwordResetConfirmInput, passwordResetRequestInput, signInInput } from "../validation/auth";
 import { companyUpdateInput, invitationCreateInput, kitchenCreateInput, kitchenUpdateInput, userUpdateInput } from "../validation/company";
 import { casingCalculationInput, casingCalculationResponse } from "../validation/casing";
@@ -204,6 +205,7 @@ const bodies = {
     currency: { description: "ISO 4217 code, upper-cased.", example: "EUR" },
     weekStart: { description: "The first day of the planning week: monday, sunday or saturday. Left out: unchanged.", example: "sunday" },
     approvalThreshold: DECIMAL("Buyers approve purchase orders up to this total, managers and admins above it; in the currency sent, at most its decimals (422 otherwise). Left out: unchanged.", "750.00"),
+    scanSeparator: { description: "What the company's scanners type instead of GS (ASCII 29) on case labels, used by POST /api/gs1/parse when a request sends no separator: 1 to 8 characters, at least one never found in GS1 data (e.g. | ~ ^ #); 422 otherwise. null: none. Left out: unchanged.", example: "|" },
   }),
   kitchenCreate: requestBody("KitchenCreateInput", kitchenCreateInput, {
     code: { description: "Unique in the company; upper-cased.", example: "NORTH-1" },
@@ -332,7 +334,7 @@ const bodies = {
       example: "]C10112345678901231172703001012345",
     },
     separator: {
-      description: "The character(s) a keyboard-wedge scanner types instead of GS, e.g. \"|\". 1 to 8 characters, at least one of them never part of GS1 data (not a letter, digit or one of ! \" % & ' ( ) * + , - . / : ; < = > ? _). GS is always accepted as well.",
+      description: "The character(s) a keyboard-wedge scanner types instead of GS, e.g. \"|\". 1 to 8 characters, at least one of them never part of GS1 data (not a letter, digit or one of ! \" % & ' ( ) * + , - . / : ; < = > ? _). GS is always accepted as well. Left out: the company's scanSeparator, if it has one.",
       example: "|",
     },
   }),
@@ -403,8 +405,8 @@ export interface EndpointDoc {
     description: string;
     schema: z.ZodType;
     setsCookie?: string;
-    /** A file download (e.g. application/pdf) instead of JSON; schema then describes the bytes. */
-    mediaType?: string;
+    /** A file download (e.g. application/pdf, or the types a stored file may be) instead of JSON; schema then describes the bytes. */
+    mediaType?: string | readonly string[];
   };
   /** What the endpoint itself (its data-layer calls) can answer, beyond the wrapper's errors. */
   errors?: Partial<Record<ErrorStatus, Cause[]>>;
@@ -479,6 +481,7 @@ const DELIVERY_UPLOAD = z
   })
   .meta({ id: "DeliveryUpload" });
 
+const DELIVERY_DOCUMENT_FILE = z.string().meta({ id: "DeliveryDocumentFile", description: "The stored note's bytes, as uploaded.", format: "binary" });
 const DELIVERY_DOCUMENT_UPLOAD = z
   .object({ file: z.string().meta({ format: "binary", description: "The paper delivery note: PDF, JPEG, PNG, HEIC or WebP, at most 25 MB." }) })
   .meta({ id: "DeliveryDocumentUpload" });
@@ -539,7 +542,7 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
   {
     method: "patch", path: "/api/company", operationId: "updateCompany", tag: "Company", auth: true,
     summary: "Change the company",
-    description: "Replaces the company's name, default time zone and currency (all three are required) and, when sent, the first day of the planning week (weekStart) and the purchase order approval threshold (approvalThreshold); left out: unchanged. Admins only.",
+    description: "Replaces the company's name, default time zone and currency (all three are required) and, when sent, the first day of the planning week (weekStart), the purchase order approval threshold (approvalThreshold), the receiving checks (receiving) and the scanners' stand-in for GS (scanSeparator); left out: unchanged. Admins only.",
     body: bodies.companyUpdate,
     success: { status: 200, description: "The company as saved.", schema: companyResponse },
     errors: { 403: [ADMIN_ONLY("manage the company")] },
@@ -859,7 +862,7 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
   {
     method: "post", path: "/api/gs1/parse", operationId: "parseGs1Label", tag: "GS1 labels", auth: true,
     summary: "Read a GS1 case label",
-    description: "Splits a scan into GS1 Application Identifiers by GS1's table of predefined lengths (so AIs this product does not read land in `other` instead of breaking the scan) and reads (00) SSCC, (01) GTIN and (02) contained GTIN with their check digits, (10) lot, (11) (13) (15) (16) (17) dates, (30) and (37) counts, (310n) kg and (320n) lb net weights as exact decimal strings with the label's decimals. Two-digit years are placed within -49..+50 years of the current year in your time zone (GS1 General Specifications 7.12). Day 00: best before, sell by and expiration are read as the last day of the month; production and packaging dates are answered as YYYY-MM. For anyone with purchasing.read or stock.receive. Computes only; writes nothing.",
+    description: "Splits a scan into GS1 Application Identifiers by GS1's table of predefined lengths (so AIs this product does not read land in `other` instead of breaking the scan) and reads (00) SSCC, (01) GTIN and (02) contained GTIN with their check digits, (10) lot, (11) (13) (15) (16) (17) dates, (30) and (37) counts, (310n) kg and (320n) lb net weights as exact decimal strings with the label's decimals. Two-digit years are placed within -49..+50 years of the current year in your time zone (GS1 General Specifications 7.12). Day 00: best before, sell by and expiration are read as the last day of the month; production and packaging dates are answered as YYYY-MM. A stand-in separator: the request's `separator`, else the company's `scanSeparator` (PATCH /api/company), else none. For anyone with purchasing.read or stock.receive. Computes only; writes nothing.",
     body: bodies.gs1Parse,
     success: { status: 200, description: "What the label says; absent fields are null.", schema: gs1LabelResponse },
     errors: {
@@ -1297,6 +1300,14 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
     errors: { 403: [["FORBIDDEN", "Your role may not receive stock (admins, managers and buyers only), or not into this kitchen."]], 404: [["NOT_FOUND", "No such delivery in your company (another company's is 404 too)."]], 413: [["PAYLOAD_TOO_LARGE", "Larger than 25 MB."]], 415: [["UNSUPPORTED_MEDIA_TYPE", "Not multipart/form-data."]], 422: [["VALIDATION", "Not a PDF or photo."]] },
   },
   {
+    method: "get", path: "/api/deliveries/{id}/document", operationId: "getDeliveryDocument", tag: "Deliveries", auth: true,
+    summary: "Download the delivery note",
+    description: "The PDF or photo attached with POST .../document, byte for byte, with the media type its bytes showed on upload and Content-Disposition: inline with the file name as sent (filename*, UTF-8). For purchasing.read (admins, managers, buyers, accountants) or stock.receive in the delivery's kitchen.",
+    params: idParam("delivery"),
+    success: { status: 200, description: "The document.", schema: DELIVERY_DOCUMENT_FILE, mediaType: DOCUMENT_FILE_TYPES.map((t) => FILE_TYPES[t].mediaType) },
+    errors: { 403: [["FORBIDDEN", "Your role neither reads purchasing nor receives into this kitchen."]], 404: [["NOT_FOUND", "No such delivery in your company (another company's is 404 too), or no document is attached."]] },
+  },
+  {
     method: "post", path: "/api/deliveries/{id}/post", operationId: "postDelivery", tag: "Deliveries", auth: true, idempotent: true,
     summary: "Post the delivery",
     description: "One transaction: receipts into the delivery's kitchen for the accepted lines (lots with supplier, lot code, date and the landed unit cost per stock unit = (line value + freight share by value) / quantity), the order lines' received quantities and the orders' status (partly received or received). Every line must be decided (422 naming lines.N.decision); accepted lot-tracked lines (every cure) need a lot and date. Posting again, also at the same time, answers the posted delivery and posts nothing.",
@@ -1488,7 +1499,7 @@ function buildRegistry(): OpenAPIRegistry {
         ...(ep.success.setsCookie
           ? { headers: { "Set-Cookie": { description: ep.success.setsCookie, schema: { type: "string" } } } }
           : {}),
-        content: { [ep.success.mediaType ?? "application/json"]: { schema: ep.success.schema } },
+        content: Object.fromEntries([ep.success.mediaType ?? "application/json"].flat().map((t) => [t, { schema: ep.success.schema }])),
       },
     };
     for (const [status, causes] of errorCauses(ep)) responses[status] = errorResponseConfig(status, causes);

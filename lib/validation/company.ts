@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { ROLES } from "../../db/types";
 import { TABLES } from "../cure/limits";
+import { separatorProblem } from "../gs1/parse";
 import { dec } from "../units";
 import { email, decimalString, role, timeZone, uuid } from "./common";
 
@@ -25,6 +26,14 @@ export const receivingSettings = z.object({
   shortDatedDays: z.object({ cure: shortDatedDays, casing: shortDatedDays, spice: shortDatedDays, ingredient: shortDatedDays }).partial().optional(),
 });
 
+/** The stand-in scanners type for GS on case labels (companies.scan_separator): the rule of POST /api/gs1/parse's `separator`. */
+export const scanSeparator = z
+  .string({ error: "The stand-in is a string, e.g. \"|\", or null for none." })
+  .superRefine((s, ctx) => {
+    const problem = separatorProblem(s);
+    if (problem) ctx.addIssue({ code: "custom", message: problem });
+  });
+
 export const companyUpdateInput = z.object({
   name: z.string().trim().min(1, "Enter the company name.").max(120),
   timeZone,
@@ -35,6 +44,8 @@ export const companyUpdateInput = z.object({
   approvalThreshold: approvalThreshold.optional(),
   /** receiving checks for deliveries; left out: unchanged */
   receiving: receivingSettings.optional(),
+  /** what scanners type instead of GS; null: none; left out: unchanged */
+  scanSeparator: scanSeparator.nullable().optional(),
 });
 
 /** The cure calculator's company settings (Settings > Company). */

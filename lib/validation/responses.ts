@@ -82,6 +82,7 @@ export const companyResponse = z
       shortDatedDays: z.object({ cure: z.number().int(), casing: z.number().int(), spice: z.number().int(), ingredient: z.number().int() })
         .meta({ description: "The least remaining life, in days, a delivered lot may have per category before it is flagged short-dated (defaults cure 90, casing 60, spice 180, ingredient 0 = no check)." }),
     }),
+    scanSeparator: z.string().nullable().meta({ description: "What the company's scanners type instead of GS (ASCII 29) on case labels; POST /api/gs1/parse uses it when a request sends no separator. null: none.", example: "|" }),
   })
   .meta({ id: "Company" });
 

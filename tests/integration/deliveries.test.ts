@@ -7,11 +7,11 @@
 // tolerance 2 %, short-dated when less than 90 days of life are left on a cure, 60 on a casing, 180
 // on a spice. Hanks: one pc of a natural casing is one hank (trade-facts §4: 100 yd = 91.44 m), so a
 // bundle of 5 hanks is 5 pc.
-import { randomUUID } from "node:crypto";
 import { NextRequest } from "next/server";
 import { beforeAll, describe, expect, it } from "vitest";
 import { PATCH as companyPatch } from "../../app/api/company/route";
-import { POST as documentRoute } from "../../app/api/deliveries/[id]/document/route";
+import { createHash, randomUUID } from "node:crypto";
+import { GET as documentGet, POST as documentRoute } from "../../app/api/deliveries/[id]/document/route";
 import { POST as addLineRoute } from "../../app/api/deliveries/[id]/lines/route";
 import { PATCH as linePatchRoute } from "../../app/api/deliveries/[id]/lines/[lineId]/route";
 import { POST as postRoute } from "../../app/api/deliveries/[id]/post/route";
@@ -22,7 +22,7 @@ import { db } from "../../db/client";
 import { ROLES } from "../../db/types";
 import { companyDay, deliveryFixture, deliveryScenario, type DeliveryScenario } from "../support/deliveries";
 import { createCompany, tag, type TestCompany } from "../support/factory";
-import { baseUrl, call } from "../support/http";
+import { baseUrl, buildRequest, call } from "../support/http";
 import { bytes, multipart, type Part } from "../support/multipart";
 import { sessionCookieFor } from "../support/sessions";
 import { ledgerMismatches } from "../support/stock";
@@ -356,6 +356,34 @@ describe("the delivery note document", () => {
     expect(ok.body.document).toMatchObject({ filename: "note.pdf", mediaType: "application/pdf" });
     const csv = await sendMultipart(documentRoute, `/api/deliveries/${r.body.id}/document`, [{ name: "file", filename: "note.csv", contentType: "text/csv", content: bytes("a,b\n1,2\n") }], "buyer", { id: r.body.id });
     expect(csv.status).toBe(422);
+  });
+
+  it("downloads as uploaded: the same bytes (SHA-256), media type and file name; 404 without one or for another company", async () => {
+    const s = await scenario();
+    const r = await upload(s, "as-ordered.csv");
+    const id = r.body.id as string;
+    const download = async (who: string, deliveryId = id) => {
+      const res = await documentGet(buildRequest({ path: `/api/deliveries/${deliveryId}/document`, cookie: cookie[who] }), { params: Promise.resolve({ id: deliveryId }) });
+      return { status: res.status, headers: res.headers, bytes: Buffer.from(await res.arrayBuffer()) };
+    };
+    const sha = (b: Uint8Array) => createHash("sha256").update(b).digest("hex");
+    const none = await download("buyer");
+    expect(none.status).toBe(404);
+    expect(JSON.parse(none.bytes.toString("utf8")).error.code).toBe("NOT_FOUND");
+    // a photo this time; a name with non-ASCII letters travels in filename*
+    const png = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.from(`IHDR ${randomUUID()}`), Buffer.alloc(300, 7)]);
+    const attached = await sendMultipart(documentRoute, `/api/deliveries/${id}/document`, [{ name: "file", filename: "Lieferschein März.png", contentType: "image/png", content: png }], "buyer", { id });
+    expect(attached.status, JSON.stringify(attached.body)).toBe(200);
+    for (const who of ["buyer", "accountant"]) {
+      const got = await download(who);
+      expect(got.status, who).toBe(200);
+      expect(sha(got.bytes)).toBe(sha(png));
+      expect(got.headers.get("content-type")).toBe("image/png");
+      expect(got.headers.get("content-disposition")).toBe(`inline; filename="Lieferschein M_rz.png"; filename*=UTF-8''Lieferschein%20M%C3%A4rz.png`);
+    }
+    expect((await download("kitchen_lead")).status).toBe(403);
+    expect((await download("otherBuyer")).status).toBe(404);
+    expect((await download("buyer", randomUUID())).status).toBe(404);
   });
 });
 

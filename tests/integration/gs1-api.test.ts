@@ -4,6 +4,7 @@
 // scandata.c test_scandata_processScanData); 12345678901234 has a wrong check digit (trade-facts §6);
 // the rest constructed. Century window: GS1 General Specifications 7.12.
 import { beforeAll, describe, expect, it } from "vitest";
+import { PATCH as companyPatch } from "../../app/api/company/route";
 import { POST as gs1Parse } from "../../app/api/gs1/parse/route";
 import { parseLabel } from "../../lib/data/gs1-labels";
 import { createCompany, type TestCompany } from "../support/factory";
@@ -55,6 +56,25 @@ describe("POST /api/gs1/parse", () => {
     expect(bracketed.body).toEqual(piped.body);
   });
 
+  it("uses the company's stand-in when the request sends none; the request's own wins", async () => {
+    const b = await createCompany();
+    const [admin, buyer] = await Promise.all([sessionCookieFor(b.users.admin.id), sessionCookieFor(b.users.buyer.id)]);
+    const bScan = (body: unknown) => call(gs1Parse, { path: "/api/gs1/parse", body, cookie: buyer });
+    // without a stand-in, "|" is not character set 82: reported, not swallowed
+    expect((await bScan({ data: "0112345678901231|10L2611-07" })).status).toBe(422);
+    const bad = await call(companyPatch, { method: "PATCH", path: "/api/company", cookie: admin, body: { name: b.company.name, timeZone: "Europe/London", currency: "EUR", scanSeparator: "X" } });
+    expect(bad.status).toBe(422);
+    expect(Object.keys(bad.body.error.details.fields)).toEqual(["scanSeparator"]);
+    const set = await call(companyPatch, { method: "PATCH", path: "/api/company", cookie: admin, body: { name: b.company.name, timeZone: "Europe/London", currency: "EUR", scanSeparator: "|" } });
+    expect(set.status, JSON.stringify(set.body)).toBe(200);
+    const piped = await bScan({ data: "0112345678901231|10L2611-07|17270300" });
+    expect(piped.status, JSON.stringify(piped.body)).toBe(200);
+    expect(piped.body).toMatchObject({ gtin: "12345678901231", lot: "L2611-07", expiry: "2027-03-31" });
+    expect((await bScan({ data: "0112345678901231~10L2611-07", separator: "~" })).body.lot).toBe("L2611-07");
+    // company a has none: the same scan is still refused there
+    expect((await scan({ data: "0112345678901231|10L2611-07|17270300" })).status).toBe(422);
+  });
+
   it("answers 422 naming the AI and what is wrong", async () => {
     const res = await scan({ data: "0112345678901234" });
     expect(res.status).toBe(422);
@@ -95,7 +115,7 @@ describe("the century of two-digit years follows the user's today", () => {
     const [east, west] = await Promise.all([createCompany({ timeZone: "Pacific/Kiritimati" }), createCompany({ timeZone: "Pacific/Pago_Pago" })]);
     const now = new Date("2026-12-31T12:00:00Z"); // Kiritimati UTC+14: 1 Jan 2027; Pago Pago UTC-11: 31 Dec 2026
     const input = { data: "]C10112345678901231" + "17770101" };
-    expect(parseLabel(await currentUser(east.users.buyer.id), input, now).expiry).toBe("2077-01-01"); // +50 from 2027
-    expect(parseLabel(await currentUser(west.users.buyer.id), input, now).expiry).toBe("1977-01-01"); // +51 from 2026 -> -49
+    expect((await parseLabel(await currentUser(east.users.buyer.id), input, now)).expiry).toBe("2077-01-01"); // +50 from 2027
+    expect((await parseLabel(await currentUser(west.users.buyer.id), input, now)).expiry).toBe("1977-01-01"); // +51 from 2026 -> -49
   });
 });

@@ -7,7 +7,7 @@ import { updateCompany, updateCureSettings } from "@/lib/data/companies";
 import { companyCureSettingsInput, companyUpdateInput } from "@/lib/validation/company";
 
 export type CompanyFormState = FormState<{ name?: string; timeZone?: string; currency?: string; weekStart?: string; approvalThreshold?: string;
-  priceTolerancePercent?: string; shortDatedCure?: string; shortDatedCasing?: string; shortDatedSpice?: string }>;
+  priceTolerancePercent?: string; shortDatedCure?: string; shortDatedCasing?: string; shortDatedSpice?: string; scanSeparator?: string }>;
 
 /** A days field: blank leaves the setting as it is; anything else must be a whole number (zod says so). */
 const daysOf = (s: string) => (s.trim() === "" ? undefined : /^\d+$/.test(s.trim()) ? Number(s.trim()) : Number.NaN);
@@ -24,9 +24,13 @@ export async function updateCompanyAction(_prev: CompanyFormState, form: FormDat
     approvalThreshold: String(form.get("approvalThreshold") ?? ""),
     priceTolerancePercent: String(form.get("priceTolerancePercent") ?? ""), shortDatedCure: String(form.get("shortDatedCure") ?? ""),
     shortDatedCasing: String(form.get("shortDatedCasing") ?? ""), shortDatedSpice: String(form.get("shortDatedSpice") ?? ""),
+    // not trimmed: a space could be part of what a scanner types
+    scanSeparator: String(form.get("scanSeparator") ?? ""),
   };
   const parsed = companyUpdateInput.safeParse({
     ...values,
+    // blank: no stand-in
+    scanSeparator: values.scanSeparator === "" ? null : values.scanSeparator,
     receiving: {
       priceTolerancePercent: values.priceTolerancePercent.trim() === "" ? undefined : values.priceTolerancePercent,
       shortDatedDays: { cure: daysOf(values.shortDatedCure), casing: daysOf(values.shortDatedCasing), spice: daysOf(values.shortDatedSpice) },

@@ -1,7 +1,7 @@
 "use client";
 
 import { startTransition, useActionState, useEffect } from "react";
-import { describedBy, FieldError, FieldHint, FormMessage, TextField } from "@/components/ui/field";
+import { describedBy, FieldError, FieldHint, FormMessage, StatusCheckbox, TextField } from "@/components/ui/field";
 import { SideSheetFooter } from "@/components/ui/side-sheet";
 import type { Supplier } from "@/lib/data/suppliers";
 import { saveSupplierAction, type SupplierFormState } from "../actions";
@@ -66,19 +66,8 @@ export function SupplierForm({ supplier, currency, onSaved, onCancel }: {
         <FieldError id="supplier-notes" errors={e?.notes} />
       </div>
       {supplier ? (
-        <fieldset>
-          <legend className="field-label">Status</legend>
-          <label className="flex min-h-touch cursor-pointer items-start gap-3 rounded-md border border-brine-line px-3 py-2.5 hover:bg-salt">
-            <input type="checkbox" name="active" defaultChecked={supplier.active} className="mt-0.5 h-5 w-5 accent-paprika" {...describedBy("supplier-active", e?.active, true)} />
-            <span>
-              <span className="block font-semibold">Buying from them</span>
-              <FieldHint id="supplier-active">
-                {supplier.active ? "Untick when you stop buying here: the supplier leaves the buying lists; its items and history stay." : "Tick to buy from this supplier again."}
-              </FieldHint>
-            </span>
-          </label>
-          <FieldError id="supplier-active" errors={e?.active} />
-        </fieldset>
+        <StatusCheckbox id="supplier-active" name="active" label="Buying from them" defaultChecked={supplier.active} errors={e?.active}
+          hint={supplier.active ? "Untick when you stop buying here: the supplier leaves the buying lists; its items and history stay." : "Tick to buy from this supplier again."} />
       ) : null}
       <SideSheetFooter>
         <button type="button" className="btn-quiet" onClick={onCancel}>Cancel</button>

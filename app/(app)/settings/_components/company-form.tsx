@@ -54,6 +54,11 @@ export function CompanyForm({ company, zones }: { company: Omit<Company, "id">; 
           <TextField name="shortDatedCasing" label="Casings (days)" inputMode="numeric" defaultValue={state.values?.shortDatedCasing ?? String(company.receiving.shortDatedDays.casing)} errors={state.fieldErrors?.shortDatedCasing} className="max-w-[8rem]" />
           <TextField name="shortDatedSpice" label="Spices (days)" inputMode="numeric" defaultValue={state.values?.shortDatedSpice ?? String(company.receiving.shortDatedDays.spice)} errors={state.fieldErrors?.shortDatedSpice} className="max-w-[8rem]" />
         </div>
+        <TextField
+          name="scanSeparator" label="What your scanners type for the label's group separator" maxLength={8} spellCheck={false} autoComplete="off"
+          defaultValue={state.values?.scanSeparator ?? company.scanSeparator ?? ""} errors={state.fieldErrors?.scanSeparator} className="max-w-[8rem]"
+          hint="Only for scanners that cannot send GS into a browser: set them to type a character such as | or ~ instead, and enter it here. Leave empty when yours send GS."
+        />
       </fieldset>
       <div className="flex flex-wrap items-center justify-end gap-3">
         <StatusRegion>{state.ok ? state.message : null}</StatusRegion>

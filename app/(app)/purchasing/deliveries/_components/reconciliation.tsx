@@ -151,6 +151,11 @@ export function Reconciliation({ initial, supplierItems }: { initial: Delivery; 
     }, "Booked into stock.");
   }
 
+  // the attached PDF or photo, opened by the browser in a tab of its own (GET /api/deliveries/{id}/document)
+  const paperNoteLink = d.document ? (
+    <a href={`/api/deliveries/${d.id}/document`} target="_blank" rel="noopener" className="text-paprika underline underline-offset-2">View the paper note</a>
+  ) : null;
+
   return (
     <div className="flex flex-col gap-5">
       {d.cureCaution ? <CureCaution /> : null}
@@ -166,12 +171,13 @@ export function Reconciliation({ initial, supplierItems }: { initial: Delivery; 
             <label htmlFor="dl-document" className="field-label">The paper note (PDF or photo)</label>
             <input id="dl-document" type="file" accept=".pdf,.jpg,.jpeg,.png,.heic,.webp,application/pdf,image/*" className="field-input" onChange={(e) => attach(e.target.files?.[0])} />
           </div>
-          {d.document ? <p className="text-sm text-brine">Attached: {d.document.filename}</p> : null}
+          {d.document ? <p className="text-sm text-brine">Attached: {d.document.filename} · {paperNoteLink}</p> : null}
         </form>
       ) : (
         <section className="panel flex flex-wrap items-center gap-4 px-5 py-4" aria-label="Booked">
           <Badge tone="herb">Booked</Badge>
           <p className="text-sm">Booked into {d.kitchen.name} on {d.postedAt?.slice(0, 10)} by {d.postedBy?.name}. Freight {d.freight} {d.currency}.</p>
+          {d.document ? paperNoteLink : null}
           <Link href="/stock" className="btn-quiet">Open the stock grid</Link>
         </section>
       )}

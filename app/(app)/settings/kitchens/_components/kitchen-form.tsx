@@ -1,7 +1,7 @@
 "use client";
 
 import { startTransition, useActionState, useEffect } from "react";
-import { describedBy, FieldError, FieldHint, FormMessage, TextField } from "@/components/ui/field";
+import { describedBy, FieldError, FormMessage, StatusCheckbox, TextField } from "@/components/ui/field";
 import { SideSheetFooter } from "@/components/ui/side-sheet";
 import { TimeZoneSelect } from "@/components/ui/time-zone-select";
 import type { Kitchen } from "@/lib/data/kitchens";
@@ -53,19 +53,8 @@ export function KitchenForm({ kitchen, zones, companyTimeZone, onSaved, onCancel
         hint="Only for a kitchen in another time zone than the company."
       />
       {kitchen ? (
-        <fieldset>
-          <legend className="field-label">Status</legend>
-          <label className="flex min-h-touch cursor-pointer items-start gap-3 rounded-md border border-brine-line px-3 py-2.5 hover:bg-salt">
-            <input type="checkbox" name="archived" defaultChecked={kitchen.archived} className="mt-0.5 h-5 w-5 accent-paprika" {...describedBy("kitchen-archived", e?.archived, true)} />
-            <span>
-              <span className="block font-semibold">Archived</span>
-              <FieldHint id="kitchen-archived">
-                {kitchen.archived ? "Untick to open this kitchen again." : "Leaves the kitchen switcher and new work. Its records stay."}
-              </FieldHint>
-            </span>
-          </label>
-          <FieldError id="kitchen-archived" errors={e?.archived} />
-        </fieldset>
+        <StatusCheckbox id="kitchen-archived" name="archived" label="Archived" defaultChecked={kitchen.archived} errors={e?.archived}
+          hint={kitchen.archived ? "Untick to open this kitchen again." : "Leaves the kitchen switcher and new work. Its records stay."} />
       ) : null}
       <SideSheetFooter>
         <button type="button" className="btn-quiet" onClick={onCancel}>Cancel</button>

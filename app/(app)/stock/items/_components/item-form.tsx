@@ -4,7 +4,7 @@ import { startTransition, useActionState, useEffect, useId, useMemo, useRef, use
 import { Plus, Trash2 } from "lucide-react";
 import { CureCaution } from "@/components/cure/cure-caution";
 import { CureMarker } from "@/components/cure/cure-marker";
-import { describedBy, FieldError, FieldHint, FormMessage, TextField } from "@/components/ui/field";
+import { describedBy, FieldError, FieldHint, FormMessage, StatusCheckbox, TextField } from "@/components/ui/field";
 import { SideSheetFooter } from "@/components/ui/side-sheet";
 import { CASING_KINDS, ITEM_CATEGORIES, type ItemCategory, type StockUnit } from "@/db/types";
 import { capacityBand, capacityTableFor, defaultCapacityKg } from "@/lib/casing/capacity";
@@ -373,16 +373,8 @@ export function ItemForm({ item, onSaved, onCancel }: { item?: Item; onSaved: (m
       </fieldset>
 
       {item ? (
-        <fieldset>
-          <legend className="field-label">Status</legend>
-          <label className="flex min-h-touch cursor-pointer items-start gap-3 rounded-md border border-brine-line px-3 py-2.5 hover:bg-salt">
-            <input type="checkbox" name="archived" defaultChecked={item.archived} className="mt-0.5 h-5 w-5 accent-paprika" />
-            <span>
-              <span className="block font-semibold">Archived</span>
-              <span className="text-sm text-brine">{item.archived ? "Untick to use this item again." : "Leaves lists and pickers. Its lots and history stay."}</span>
-            </span>
-          </label>
-        </fieldset>
+        <StatusCheckbox id="item-archived" name="archived" label="Archived" defaultChecked={item.archived}
+          hint={item.archived ? "Untick to use this item again." : "Leaves lists and pickers. Its lots and history stay."} />
       ) : null}
 
       <SideSheetFooter>

@@ -330,7 +330,7 @@ export function PriceListSection({ supplierId, supplierName, currency, canManage
                 <p className={s.errors ? "font-semibold text-ember" : "text-pepper"}>{result.message}</p>
               </div>
               <ul className="flex flex-wrap gap-2" aria-label="Counts">
-                <li><Badge>{s.rows.toLocaleString("en")} rows read</Badge></li>
+                <li><Badge>{count(s.rows, "row")} read</Badge></li>
                 <li><Badge tone="amber" icon={<ArrowUpRight />}>{s.raised.toLocaleString("en")} up</Badge></li>
                 <li><Badge tone="herb" icon={<ArrowDownRight />}>{s.lowered.toLocaleString("en")} down</Badge></li>
                 <li><Badge icon={<Minus />}>{s.unchanged.toLocaleString("en")} unchanged</Badge></li>
@@ -413,11 +413,11 @@ export function PriceListSection({ supplierId, supplierName, currency, canManage
                   </TBody>
                 </DataTable>
               ) : null}
-              {s.moreChanges ? <p className="text-sm text-brine">The first {result.changes.length.toLocaleString("en")} changes are listed; {s.moreChanges.toLocaleString("en")} more are counted above.</p> : null}
+              {s.moreChanges ? <p className="text-sm text-brine">The first {count(result.changes.length, "change")} {result.changes.length === 1 ? "is" : "are"} listed; {s.moreChanges.toLocaleString("en")} more {s.moreChanges === 1 ? "is" : "are"} counted above.</p> : null}
 
               <div className="flex flex-wrap items-center gap-3">
                 <button type="button" className="btn-primary" disabled={!canApply} onClick={() => send("apply")}>
-                  Apply {s.priced.toLocaleString("en")} prices from {effectiveFrom}
+                  Apply {count(s.priced, "price")} from {effectiveFrom}
                 </button>
                 <p className="text-sm text-brine">
                   {result.appliedBefore

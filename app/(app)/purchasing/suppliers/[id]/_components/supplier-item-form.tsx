@@ -4,7 +4,7 @@
 // its GTIN. The pack's size in our stock unit is worked out as it is typed (lib/units, exact; the
 // server converts again when it saves, and names both units when they do not convert).
 import { startTransition, useActionState, useEffect, useId, useMemo, useState } from "react";
-import { describedBy, FieldError, FieldHint, FormMessage, TextField } from "@/components/ui/field";
+import { describedBy, FieldError, FieldHint, FormMessage, StatusCheckbox, TextField } from "@/components/ui/field";
 import { SideSheetFooter } from "@/components/ui/side-sheet";
 import { ITEM_CATEGORIES, type ItemCategory } from "@/db/types";
 import type { SupplierItem } from "@/lib/data/suppliers";
@@ -149,16 +149,8 @@ export function SupplierItemForm({ supplierId, supplierItem, items, unitSystem, 
       />
 
       {supplierItem ? (
-        <fieldset>
-          <legend className="field-label">Status</legend>
-          <label className="flex min-h-touch cursor-pointer items-start gap-3 rounded-md border border-brine-line px-3 py-2.5 hover:bg-salt">
-            <input type="checkbox" name="active" defaultChecked={supplierItem.active} className="mt-0.5 h-5 w-5 accent-paprika" {...describedBy(fid("active"), e?.active, true)} />
-            <span>
-              <span className="block font-semibold">Still sold</span>
-              <FieldHint id={fid("active")}>{supplierItem.active ? "Untick when the supplier stops selling it; it stays on record." : "Tick when they sell it again."}</FieldHint>
-            </span>
-          </label>
-        </fieldset>
+        <StatusCheckbox id={fid("active")} name="active" label="Still sold" defaultChecked={supplierItem.active} errors={e?.active}
+          hint={supplierItem.active ? "Untick when the supplier stops selling it; it stays on record." : "Tick when they sell it again."} />
       ) : null}
 
       <SideSheetFooter>
