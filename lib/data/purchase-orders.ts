@@ -552,9 +552,11 @@ export async function orderCatalogue(actor: CurrentUser): Promise<{ currency: st
  * A draft order (also what the reorder suggestion calls to turn its lines into an order). Whole
  * packs; a line without a pack price takes the supplier item's current price.
  */
-export async function createPurchaseOrder(actor: CurrentUser, input: PurchaseOrderCreateInput): Promise<PurchaseOrder> {
+/** Creates a draft; with `outer`, inside the caller's transaction (several drafts all or nothing). */
+export async function createPurchaseOrder(actor: CurrentUser, input: PurchaseOrderCreateInput, outer?: Knex.Transaction): Promise<PurchaseOrder> {
   assertCan(actor, "purchasing.manage");
-  return db().transaction(async (trx) => {
+  const run = <T>(fn: (trx: Knex.Transaction) => Promise<T>) => (outer ? fn(outer) : db().transaction(fn));
+  return run(async (trx) => {
     const facts = await companyFacts(trx, actor.companyId);
     const supplier: { id: string; name: string; active: boolean } | undefined = isUuid(input.supplier)
       ? await trx("suppliers").where({ company_id: actor.companyId, id: input.supplier }).forShare().first("id", "name", "active")

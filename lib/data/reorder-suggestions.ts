@@ -6,11 +6,8 @@
 // of another company is 404 in the query and 422 on `kitchen` in a body (as for purchase orders);
 // a supplier item of another company is 422 on its line, as if it did not exist.
 //
-// Drafts go through createPurchaseOrder, which opens its own transaction per order, so the drafts
-// of one request are made one after the other, not in one transaction. Everything a draft checks
-// is checked for all lines first (so a bad line makes nothing); should a draft still fail (the
-// supplier switched off in between), the drafts already made by this request are cancelled with
-// a reason and the error names the request's own line.
+// The drafts of one request are made in one transaction: all of them or none. Everything a draft
+// checks is checked for all lines first, so the error names the request's own line.
 import "server-only";
 import { addDays, formatISO, parseISO } from "date-fns";
 import { db } from "../../db/client";
@@ -24,7 +21,7 @@ import { gatherReorder, type PendingOrder, type ReorderItemFacts, type ReorderIt
 import type { OfferFigures } from "../reorder/suggest";
 import { isUuid } from "../validation/items";
 import type { ReorderOrdersInput } from "../validation/reorder";
-import { cancelPurchaseOrder, createPurchaseOrder, type PurchaseOrder } from "./purchase-orders";
+import { createPurchaseOrder, type PurchaseOrder } from "./purchase-orders";
 
 export type { PendingOrder, ReorderItemRef };
 
@@ -288,24 +285,24 @@ export async function createReorderOrders(actor: CurrentUser, input: ReorderOrde
   });
   if (Object.keys(fields).length) throw validation(fields);
 
-  const orders: PurchaseOrder[] = [];
-  for (const g of groups.values()) {
-    try {
-      orders.push(
-        await createPurchaseOrder(actor, {
-          supplier: g.supplier.supplier_id,
-          kitchen: kitchen.id,
-          deliverBy: formatISO(addDays(parseISO(today), g.supplier.lead_time_days), { representation: "date" }),
-          lines: g.lines.map(({ line }) => ({ supplierItem: line.supplierItemId, packs: line.packs, ...(line.packPrice !== undefined ? { packPrice: line.packPrice } : {}) })),
-        }),
-      );
-    } catch (e) {
-      for (const made of orders) {
-        await cancelPurchaseOrder(actor, made.id, "Drafted with other reorder lines that could not be ordered; made again when they are fixed.").catch(() => {});
+  const orders = await db().transaction(async (trx) => {
+    const made: PurchaseOrder[] = [];
+    for (const g of groups.values()) {
+      try {
+        made.push(
+          await createPurchaseOrder(actor, {
+            supplier: g.supplier.supplier_id,
+            kitchen: kitchen.id,
+            deliverBy: formatISO(addDays(parseISO(today), g.supplier.lead_time_days), { representation: "date" }),
+            lines: g.lines.map(({ line }) => ({ supplierItem: line.supplierItemId, packs: line.packs, ...(line.packPrice !== undefined ? { packPrice: line.packPrice } : {}) })),
+          }, trx),
+        );
+      } catch (e) {
+        throw renumber(e, g.lines.map((l) => l.index));
       }
-      throw renumber(e, g.lines.map((l) => l.index));
     }
-  }
+    return made;
+  });
   return { orders };
 }
 
