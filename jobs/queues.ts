@@ -6,6 +6,16 @@ import { env } from "../lib/env";
 
 export const MAIL_QUEUE = "mail";
 export const HOUSEKEEPING_QUEUE = "housekeeping";
+/** The alert scans (expiry now; reorder and shortage later): one job per company and scan. */
+export const SCANS_QUEUE = "scans";
+
+/** Scans are idempotent (alerts are unique), so retries are safe; old jobs go after a day or a week. */
+export const SCAN_JOB_OPTIONS = {
+  attempts: 5,
+  backoff: { type: "exponential", delay: 5000 },
+  removeOnComplete: { age: 24 * 3600, count: 1000 },
+  removeOnFail: { age: 7 * 24 * 3600, count: 5000 },
+} as const;
 
 export const MAIL_JOB_OPTIONS = {
   attempts: 6,

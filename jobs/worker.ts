@@ -1,13 +1,14 @@
-// The job worker: sends outbox e-mail and runs housekeeping. Closes gracefully on SIGTERM/SIGINT.
+// The job worker: sends outbox e-mail, runs housekeeping and the alert scans. Closes gracefully on SIGTERM/SIGINT.
 // env: DATABASE_URL, REDIS_URL, SMTP_HOST, SMTP_PORT, MAIL_FROM, OUTBOX_SWEEP_MS (10000)
-import { Queue, Worker, type Job } from "bullmq";
+import { Queue, UnrecoverableError, Worker, type Job } from "bullmq";
 import { Redis } from "ioredis";
 import nodemailer from "nodemailer";
 import { closeDb, db } from "../db/client";
 import { env } from "../lib/env";
+import { enqueueOverdueExpiryScans, EXPIRY_SCAN_JOB, runExpiryScan, syncExpirySchedulers } from "./definitions/expiry-scan";
 import { runHousekeeping } from "./definitions/housekeeping";
 import { markOutboxEmailFailed, pendingOutboxIds, sendOutboxEmail } from "./definitions/send-email";
-import { enqueueOutboxEmails, HOUSEKEEPING_QUEUE, MAIL_QUEUE } from "./queues";
+import { enqueueOutboxEmails, HOUSEKEEPING_QUEUE, MAIL_QUEUE, SCANS_QUEUE } from "./queues";
 
 const config = env();
 const sweepMs = Number(process.env.OUTBOX_SWEEP_MS ?? 10_000);
@@ -31,9 +32,39 @@ const housekeepingWorker = new Worker(
   { connection: workerConnection() },
 );
 
+// Alert scans: one job per company (payload {companyId}); see jobs/definitions/expiry-scan.ts.
+const scansWorker = new Worker(
+  SCANS_QUEUE,
+  async (job: Job) => {
+    if (job.name === EXPIRY_SCAN_JOB) return runExpiryScan(db(), job.data);
+    throw new UnrecoverableError(`Unknown scan job ${job.name}`);
+  },
+  { connection: workerConnection(), concurrency: 2 },
+);
+scansWorker.on("failed", (job, err) => {
+  if (job) console.warn(`[worker] scan ${job.name} ${job.id} failed (attempt ${job.attemptsMade}): ${err.message}`);
+});
+
 const mailQueue = new Queue(MAIL_QUEUE, { connection: workerConnection() });
 const housekeepingQueue = new Queue(HOUSEKEEPING_QUEUE, { connection: workerConnection() });
 await housekeepingQueue.upsertJobScheduler("daily-housekeeping", { every: 24 * 3600 * 1000 }, { name: "housekeeping" });
+const scansQueue = new Queue(SCANS_QUEUE, { connection: workerConnection() });
+
+// Per-company schedulers at start and hourly (new companies, changed time zones); on start, a
+// catch-up run for every company whose last scan is older than a day (schedulers never backfill).
+async function syncScans(catchUp: boolean) {
+  try {
+    await syncExpirySchedulers(db(), scansQueue);
+    if (catchUp) {
+      const n = await enqueueOverdueExpiryScans(db(), scansQueue);
+      if (n) console.log(`[worker] ${n} overdue expiry scan(s) queued`);
+    }
+  } catch (e) {
+    console.warn("[worker] scan scheduling failed:", (e as Error).message);
+  }
+}
+await syncScans(true);
+const scanSyncTimer = setInterval(() => void syncScans(false), 3600 * 1000);
 
 // The outbox sweep: e-mails written while Redis was down (or whose enqueue was lost) get queued.
 let sweeping = false;
@@ -50,7 +81,7 @@ async function sweep() {
 }
 void sweep();
 const sweepTimer = setInterval(sweep, sweepMs);
-console.log(`[worker] running: queues ${MAIL_QUEUE}, ${HOUSEKEEPING_QUEUE}; SMTP ${config.SMTP_HOST}:${config.SMTP_PORT}`);
+console.log(`[worker] running: queues ${MAIL_QUEUE}, ${HOUSEKEEPING_QUEUE}, ${SCANS_QUEUE}; SMTP ${config.SMTP_HOST}:${config.SMTP_PORT}`);
 
 let closing = false;
 async function shutdown(signal: string) {
@@ -58,7 +89,10 @@ async function shutdown(signal: string) {
   closing = true;
   console.log(`[worker] ${signal}: finishing current jobs`);
   clearInterval(sweepTimer);
-  await Promise.allSettled([mailWorker.close(), housekeepingWorker.close(), mailQueue.close(), housekeepingQueue.close()]);
+  clearInterval(scanSyncTimer);
+  await Promise.allSettled([
+    mailWorker.close(), housekeepingWorker.close(), scansWorker.close(), mailQueue.close(), housekeepingQueue.close(), scansQueue.close(),
+  ]);
   transport.close();
   await closeDb();
   process.exit(0);

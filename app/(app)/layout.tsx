@@ -1,10 +1,12 @@
-import { LogOut } from "lucide-react";
+import { Bell, LogOut } from "lucide-react";
 import { Rail } from "@/components/shell/rail";
 import { KitchenSwitcher } from "@/components/shell/kitchen-switcher";
 import { sectionsFor } from "@/components/shell/sections";
 import { Wordmark } from "@/components/brand/logo-mark";
 import { QueryProvider } from "@/components/providers/query-provider";
+import { canSomewhere } from "@/lib/auth/permissions";
 import { requireUser } from "@/lib/auth/session";
+import { unreadAlertCount } from "@/lib/data/alerts";
 import { getCurrentKitchen } from "@/lib/data/current-kitchen";
 import { ROLE_LABELS } from "@/lib/auth/roles";
 import Link from "next/link";
@@ -17,6 +19,8 @@ export default async function AppLayout({ children }: { children: React.ReactNod
   const user = await requireUser();
   const kitchen = await getCurrentKitchen(user);
   const sections = sectionsFor(user).map(({ key, href, label }) => ({ key, href, label }));
+  const alertsShown = canSomewhere(user, "alerts.read");
+  const unread = alertsShown ? await unreadAlertCount(user) : 0;
   return (
     <div className="flex min-h-screen">
       <Rail sections={sections} />
@@ -28,6 +32,20 @@ export default async function AppLayout({ children }: { children: React.ReactNod
           </div>
           <div className="flex items-center gap-4">
             <KitchenSwitcher kitchens={user.kitchens} currentId={kitchen?.id ?? null} />
+            {alertsShown ? (
+              <Link
+                href="/alerts"
+                className="relative flex min-h-touch min-w-touch items-center justify-center rounded-md hover:bg-salt"
+                aria-label={unread ? `Alerts, ${unread} not yet seen` : "Alerts"}
+              >
+                <Bell aria-hidden className="h-5 w-5" />
+                {unread ? (
+                  <span aria-hidden className="absolute right-1 top-1 min-w-5 rounded-full bg-ember px-1 text-center text-xs font-semibold leading-5 text-white">
+                    {unread > 99 ? "99+" : unread}
+                  </span>
+                ) : null}
+              </Link>
+            ) : null}
             <Link href="/account" className="flex min-h-touch flex-col justify-center text-right text-sm leading-tight hover:underline">
               <span className="font-semibold">{user.name}</span>
               <span className="text-brine">{ROLE_LABELS[user.role]}</span>

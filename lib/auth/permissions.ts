@@ -33,7 +33,9 @@ export type Action =
   | "orders.approve"
   // reports
   | "reports.read"
-  | "reports.export";
+  | "reports.export"
+  // alerts from the scans in jobs/ (expiry now; reorder and shortage later)
+  | "alerts.read";
 
 /** Where a role may do an action: nowhere, in every kitchen of its company, or only in its own kitchens. */
 type Reach = "none" | "company" | "own";
@@ -71,6 +73,8 @@ export const MATRIX: Record<Action, Record<Role, Reach>> = {
   "orders.approve":    { admin: ALL, manager: ALL, buyer: ALL, kitchen_lead: "none", accountant: "none" },
   "reports.read":      { admin: ALL, manager: ALL, buyer: "none", kitchen_lead: "none", accountant: ALL },
   "reports.export":    { admin: ALL, manager: ALL, buyer: "none", kitchen_lead: "none", accountant: ALL },
+  // checked per alert against its kitchen
+  "alerts.read":       { admin: ALL, manager: ALL, buyer: ALL, kitchen_lead: OWN, accountant: "none" },
 };
 
 export interface Actor {

@@ -17,6 +17,7 @@ import {
 import { z } from "zod";
 import type { meBody } from "../../app/api/me/me-body";
 import { SESSION_COOKIE } from "../auth/session";
+import type { Alert } from "../data/alerts";
 import type { CapturedMail } from "../data/captured-mail";
 import type { CasingCalculation } from "../data/casing-calculation";
 import type { Batch, ReserveAllResult } from "../data/batches";
@@ -34,6 +35,7 @@ import type { ReorderSuggestions } from "../data/reorder-suggestions";
 import type { TransferLotChoices, TransferRequest } from "../data/transfer-requests";
 import type { UserSummary } from "../data/users";
 import { DOCUMENT_FILE_TYPES, FILE_TYPES } from "../uploads/file-types";
+import { alertListQuery, alertListResponse, alertResponse, alertSnoozeInput } from "../validation/alerts";
 import { invitationAcceptInput, passwordResetConfirmInput, passwordResetRequestInput, signInInput } from "../validation/auth";
 import { companyUpdateInput, invitationCreateInput, kitchenCreateInput, kitchenUpdateInput, userUpdateInput } from "../validation/company";
 import { casingCalculationInput, casingCalculationResponse } from "../validation/casing";
@@ -109,6 +111,7 @@ export type ResponseShapesMatch = [
   Assert<Same<z.infer<typeof priceListResultResponse>, PriceListResult>>,
   Assert<Same<z.infer<typeof priceListImportListResponse>, { imports: PriceListImport[] }>>,
   Assert<Same<z.infer<typeof itemPricesResponse>, ItemPrices>>,
+  Assert<Same<z.infer<typeof alertResponse>, Alert>>,
 ];
 
 // ---------------------------------------------------------------------------------------------
@@ -269,6 +272,10 @@ const bodies = {
     lot: { description: "The id of the lot to send: a lot of the requested item with enough available in the sending kitchen (GET /api/transfer-requests/{id}/lots lists them). Left out: first-expired-first-out, expired lots skipped. An expired lot named here is sent (the ledger refuses only to use one)." },
   }),
   transferDecline: requestBody("TransferDeclineInput", transferDeclineInput),
+  alertSnooze: requestBody("AlertSnoozeInput", alertSnoozeInput, {
+    until: { description: "Snooze until this instant (in the future, at most 30 days ahead).", format: "date-time", example: "2026-12-03T08:00:00+01:00" },
+    hours: { description: "Or: snooze for this many whole hours from now (1-720).", example: 24 },
+  }),
   countSheet: requestBody("CountSheetInput", countSheetInput, {
     kitchen: { description: "The kitchen's code.", example: "YARD" },
     lines: { description: "One line per item (per lot for lot-tracked items): counted quantity and unit. All lines post together or none." },
@@ -428,6 +435,7 @@ export const TAGS = [
   { name: "Users", description: "People in the company, their roles and kitchens. Admins only." },
   { name: "Invitations", description: "Single-use e-mailed links that create accounts." },
   { name: "Mail catcher", description: "Local development only: e-mail caught instead of sent." },
+  { name: "Alerts", description: "What the daily scans found (lots near their date; later reorder and shortage), per kitchen, with each user's acknowledgements and snoozes." },
   { name: "Reference", description: "This document." },
 ] as const;
 type TagName = (typeof TAGS)[number]["name"];
@@ -925,6 +933,47 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
       403: [["FORBIDDEN", "Only the sending kitchen's lead, a manager or an admin."]],
       404: [["NOT_FOUND", "No such request in your company."]],
       409: [["REQUEST_CLOSED", "Already fulfilled, declined or cancelled."]],
+    },
+  },
+  // Alerts --------------------------------------------------------------------------------
+  {
+    method: "get", path: "/api/alerts", operationId: "listAlerts", tag: "Alerts", auth: true,
+    summary: "Your alerts",
+    description: "Alerts of the kitchens you may see (alerts.read: admins, managers and buyers every kitchen, kitchen leads their own), newest first. Left out unless asked: those you acknowledged. Snoozed alerts are listed but not unread. unreadCount counts your unread alerts in every kitchen you may see, whatever the filters. The daily expiry scan raises one alert per lot, kitchen and crossed warning window (company setting; defaults cure 60/30/7 days, casings 30/7, spices 90/30). Reads the database only: the list answers while the job queue is down, though new alerts then wait for it.",
+    query: alertListQuery.extend({
+      kind: alertListQuery.shape.kind.meta({ description: "Only this kind." }),
+      kitchen: alertListQuery.shape.kitchen.meta({ description: "Only this kitchen, by id or code.", example: "YARD" }),
+      includeAcknowledged: alertListQuery.shape.includeAcknowledged.meta({ description: "true: also those you acknowledged." }),
+      limit: alertListQuery.shape.limit.meta({ description: "At most this many (1-500, default 200)." }),
+    }),
+    success: { status: 200, description: "The alerts and your unread count.", schema: alertListResponse },
+    errors: {
+      403: [["FORBIDDEN", "Your role does not receive alerts (accountants), or the kitchen is not one of yours."]],
+      404: [["NOT_FOUND", "No kitchen of your company has this id or code."]],
+    },
+  },
+  {
+    method: "post", path: "/api/alerts/{id}/ack", operationId: "acknowledgeAlert", tag: "Alerts", auth: true, idempotent: true,
+    summary: "Acknowledge an alert",
+    description: "Marks the alert read for you (others still see it unread). Acknowledging again keeps the first time.",
+    params: idParam("alert"),
+    success: { status: 200, description: "The alert as you now see it.", schema: alertResponse },
+    errors: {
+      403: [["FORBIDDEN", "The alert is about a kitchen you do not look after."]],
+      404: [["NOT_FOUND", "No such alert in your company."]],
+    },
+  },
+  {
+    method: "post", path: "/api/alerts/{id}/snooze", operationId: "snoozeAlert", tag: "Alerts", auth: true, idempotent: true,
+    summary: "Snooze an alert",
+    description: "Leaves the alert out of your unread count until a time (until) or for some hours (hours), at most 30 days. Snoozing again replaces the time.",
+    params: idParam("alert"),
+    body: bodies.alertSnooze,
+    success: { status: 200, description: "The alert as you now see it.", schema: alertResponse },
+    errors: {
+      403: [["FORBIDDEN", "The alert is about a kitchen you do not look after."]],
+      404: [["NOT_FOUND", "No such alert in your company."]],
+      422: [["VALIDATION", "Neither or both of until and hours, or until not in the future or more than 30 days ahead (details.fields.until)."]],
     },
   },
   // Items ---------------------------------------------------------------------------------

@@ -35,6 +35,7 @@ const EXPECTED = `
   orders.approve       all    all      limit  -             -
   reports.read         all    all      -      -             all
   reports.export       all    all      -      -             all
+  alerts.read          all    all      all    own           -
 `;
 
 type Cell = "all" | "own" | "limit" | "-";
