@@ -53,7 +53,7 @@ export default async function AppLayout({ children }: { children: React.ReactNod
             <form action={signOutAction}>
               <button type="submit" className="btn-quiet px-3" aria-label="Sign out">
                 <LogOut aria-hidden className="h-5 w-5" />
-                <span className="hidden lg:inline">Sign out</span>
+                <span className="hidden xl:inline">Sign out</span>
               </button>
             </form>
           </div>

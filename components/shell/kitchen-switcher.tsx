@@ -8,7 +8,7 @@ export function KitchenSwitcher({ kitchens, currentId }: { kitchens: { id: strin
   if (kitchens.length === 0) return <span className="text-sm text-brine">No kitchen assigned</span>;
   return (
     <label className="flex items-center gap-2 text-sm">
-      <span className="font-semibold text-brine">Kitchen</span>
+      <span className="sr-only font-semibold text-brine xl:not-sr-only">Kitchen</span>
       <select
         className="field-input min-w-[200px] py-0 font-semibold"
         value={currentId ?? ""}
