@@ -1,6 +1,7 @@
 "use client";
 
-import { startTransition, useActionState, useEffect } from "react";
+import { useActionState, useEffect } from "react";
+import { SheetForm } from "@/components/ui/sheet-form";
 import { describedBy, FieldError, FieldHint, FormMessage, StatusCheckbox, TextField } from "@/components/ui/field";
 import { SideSheetFooter } from "@/components/ui/side-sheet";
 import type { Supplier } from "@/lib/data/suppliers";
@@ -23,15 +24,7 @@ export function SupplierForm({ supplier, currency, onSaved, onCancel }: {
   const numberProps = { autoComplete: "off", spellCheck: false } as const;
 
   return (
-    <form
-      noValidate
-      className="flex flex-col gap-5"
-      onSubmit={(ev) => {
-        ev.preventDefault();
-        const data = new FormData(ev.currentTarget);
-        startTransition(() => action(data));
-      }}
-    >
+    <SheetForm action={action}>
       {supplier ? <input type="hidden" name="id" value={supplier.id} /> : null}
       <FormMessage tone="error">{state.message}</FormMessage>
       <TextField
@@ -75,6 +68,6 @@ export function SupplierForm({ supplier, currency, onSaved, onCancel }: {
           {pending ? "Saving…" : supplier ? "Save changes" : "Add supplier"}
         </button>
       </SideSheetFooter>
-    </form>
+    </SheetForm>
   );
 }

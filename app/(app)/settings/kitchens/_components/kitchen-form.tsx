@@ -1,6 +1,7 @@
 "use client";
 
-import { startTransition, useActionState, useEffect } from "react";
+import { useActionState, useEffect } from "react";
+import { SheetForm } from "@/components/ui/sheet-form";
 import { describedBy, FieldError, FormMessage, StatusCheckbox, TextField } from "@/components/ui/field";
 import { SideSheetFooter } from "@/components/ui/side-sheet";
 import { TimeZoneSelect } from "@/components/ui/time-zone-select";
@@ -22,15 +23,7 @@ export function KitchenForm({ kitchen, zones, companyTimeZone, onSaved, onCancel
   const e = state.fieldErrors;
 
   return (
-    <form
-      noValidate
-      className="flex flex-col gap-5"
-      onSubmit={(ev) => {
-        ev.preventDefault();
-        const data = new FormData(ev.currentTarget);
-        startTransition(() => action(data));
-      }}
-    >
+    <SheetForm action={action}>
       {kitchen ? <input type="hidden" name="id" value={kitchen.id} /> : null}
       <FormMessage tone="error">{state.message}</FormMessage>
       <TextField
@@ -62,6 +55,6 @@ export function KitchenForm({ kitchen, zones, companyTimeZone, onSaved, onCancel
           {pending ? "Saving…" : kitchen ? "Save changes" : "Add kitchen"}
         </button>
       </SideSheetFooter>
-    </form>
+    </SheetForm>
   );
 }

@@ -1,6 +1,7 @@
 "use client";
 
-import { startTransition, useActionState, useEffect, useState } from "react";
+import { useActionState, useEffect, useState } from "react";
+import { SheetForm } from "@/components/ui/sheet-form";
 import type { Role } from "@/db/types";
 import { FormMessage, TextField } from "@/components/ui/field";
 import { SideSheetFooter } from "@/components/ui/side-sheet";
@@ -21,15 +22,7 @@ export function InviteForm({ kitchens, onSent, onCancel }: {
   }, [state, onSent]);
 
   return (
-    <form
-      noValidate
-      className="flex flex-col gap-5"
-      onSubmit={(e) => {
-        e.preventDefault();
-        const data = new FormData(e.currentTarget);
-        startTransition(() => action(data));
-      }}
-    >
+    <SheetForm action={action}>
       <FormMessage tone="error">{state.message}</FormMessage>
       <TextField
         name="email" id="invite-email" label="E-mail" type="email" autoComplete="off" required initialFocus
@@ -44,6 +37,6 @@ export function InviteForm({ kitchens, onSent, onCancel }: {
         <button type="button" className="btn-quiet" onClick={onCancel}>Cancel</button>
         <button type="submit" className="btn-primary" disabled={pending}>{pending ? "Sending…" : "Send invitation"}</button>
       </SideSheetFooter>
-    </form>
+    </SheetForm>
   );
 }

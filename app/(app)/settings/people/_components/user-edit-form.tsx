@@ -1,6 +1,7 @@
 "use client";
 
-import { startTransition, useActionState, useEffect, useState } from "react";
+import { useActionState, useEffect, useState } from "react";
+import { SheetForm } from "@/components/ui/sheet-form";
 import type { Role } from "@/db/types";
 import { FormMessage, TextField } from "@/components/ui/field";
 import { SideSheetFooter } from "@/components/ui/side-sheet";
@@ -26,16 +27,7 @@ export function UserEditForm({ user, kitchens, isSelf, onSaved, onCancel }: {
 
   const selected = state.values?.kitchenIds ?? user.kitchens.map((k) => k.id);
   return (
-    <form
-      noValidate
-      className="flex flex-col gap-5"
-      // submitted by hand so a rejected form keeps every field as the person left it
-      onSubmit={(e) => {
-        e.preventDefault();
-        const data = new FormData(e.currentTarget);
-        startTransition(() => action(data));
-      }}
-    >
+    <SheetForm action={action}>
       <input type="hidden" name="id" value={user.id} />
       <FormMessage tone="error">{state.message}</FormMessage>
       <TextField name="name" id="edit-name" label="Name" autoComplete="off" required defaultValue={user.name} errors={state.fieldErrors?.name} initialFocus />
@@ -68,6 +60,6 @@ export function UserEditForm({ user, kitchens, isSelf, onSaved, onCancel }: {
         <button type="button" className="btn-quiet" onClick={onCancel}>Cancel</button>
         <button type="submit" className="btn-primary" disabled={pending}>{pending ? "Saving…" : "Save changes"}</button>
       </SideSheetFooter>
-    </form>
+    </SheetForm>
   );
 }

@@ -1,6 +1,7 @@
 "use client";
 
-import { startTransition, useActionState, useEffect, useId, useMemo, useRef, useState } from "react";
+import { useActionState, useEffect, useId, useMemo, useRef, useState } from "react";
+import { SheetForm } from "@/components/ui/sheet-form";
 import { Plus, Trash2 } from "lucide-react";
 import { CureCaution } from "@/components/cure/cure-caution";
 import { CureMarker } from "@/components/cure/cure-marker";
@@ -118,15 +119,7 @@ export function ItemForm({ item, onSaved, onCancel }: { item?: Item; onSaved: (m
   const decimalProps = { inputMode: "decimal" as const, autoComplete: "off", spellCheck: false };
 
   return (
-    <form
-      noValidate
-      className="flex flex-col gap-5"
-      onSubmit={(ev) => {
-        ev.preventDefault();
-        const data = new FormData(ev.currentTarget);
-        startTransition(() => action(data));
-      }}
-    >
+    <SheetForm action={action}>
       {item ? <input type="hidden" name="id" value={item.id} /> : null}
       <FormMessage tone="error">{state.message ?? e._?.[0]}</FormMessage>
       {stray.length ? (
@@ -383,6 +376,6 @@ export function ItemForm({ item, onSaved, onCancel }: { item?: Item; onSaved: (m
           {pending ? "Saving…" : item ? "Save changes" : "Add item"}
         </button>
       </SideSheetFooter>
-    </form>
+    </SheetForm>
   );
 }

@@ -3,7 +3,8 @@
 // Add or edit one of a supplier's items: its SKU, our item, the pack as the supplier sells it and
 // its GTIN. The pack's size in our stock unit is worked out as it is typed (lib/units, exact; the
 // server converts again when it saves, and names both units when they do not convert).
-import { startTransition, useActionState, useEffect, useId, useMemo, useState } from "react";
+import { useActionState, useEffect, useId, useMemo, useState } from "react";
+import { SheetForm } from "@/components/ui/sheet-form";
 import { describedBy, FieldError, FieldHint, FormMessage, StatusCheckbox, TextField } from "@/components/ui/field";
 import { SideSheetFooter } from "@/components/ui/side-sheet";
 import { ITEM_CATEGORIES, type ItemCategory } from "@/db/types";
@@ -74,15 +75,7 @@ export function SupplierItemForm({ supplierId, supplierItem, items, unitSystem, 
   const decimalProps = { inputMode: "decimal" as const, autoComplete: "off", spellCheck: false };
 
   return (
-    <form
-      noValidate
-      className="flex flex-col gap-5"
-      onSubmit={(ev) => {
-        ev.preventDefault();
-        const data = new FormData(ev.currentTarget);
-        startTransition(() => action(data));
-      }}
-    >
+    <SheetForm action={action}>
       <input type="hidden" name="supplierId" value={supplierId} />
       {supplierItem ? <input type="hidden" name="id" value={supplierItem.id} /> : null}
       <FormMessage tone="error">{state.message}</FormMessage>
@@ -159,6 +152,6 @@ export function SupplierItemForm({ supplierId, supplierItem, items, unitSystem, 
           {pending ? "Saving…" : supplierItem ? "Save changes" : "Add item"}
         </button>
       </SideSheetFooter>
-    </form>
+    </SheetForm>
   );
 }
