@@ -5,7 +5,7 @@ import { Redis } from "ioredis";
 import nodemailer from "nodemailer";
 import { closeDb, db } from "../db/client";
 import { env } from "../lib/env";
-import { enqueueOverdueExpiryScans, EXPIRY_SCAN_JOB, runExpiryScan, syncExpirySchedulers } from "./definitions/expiry-scan";
+import { enqueueOverdueScans, scanByName, syncScanSchedulers } from "./definitions/scans";
 import { runHousekeeping } from "./definitions/housekeeping";
 import { markOutboxEmailFailed, pendingOutboxIds, sendOutboxEmail } from "./definitions/send-email";
 import { enqueueOutboxEmails, HOUSEKEEPING_QUEUE, MAIL_QUEUE, SCANS_QUEUE } from "./queues";
@@ -32,12 +32,13 @@ const housekeepingWorker = new Worker(
   { connection: workerConnection() },
 );
 
-// Alert scans: one job per company (payload {companyId}); see jobs/definitions/expiry-scan.ts.
+// Alert scans: one job per company and scan (payload {companyId}); see jobs/definitions/scans.ts.
 const scansWorker = new Worker(
   SCANS_QUEUE,
   async (job: Job) => {
-    if (job.name === EXPIRY_SCAN_JOB) return runExpiryScan(db(), job.data);
-    throw new UnrecoverableError(`Unknown scan job ${job.name}`);
+    const scan = scanByName(job.name);
+    if (!scan) throw new UnrecoverableError(`Unknown scan job ${job.name}`);
+    return scan.run(db(), job.data);
   },
   { connection: workerConnection(), concurrency: 2 },
 );
@@ -54,10 +55,10 @@ const scansQueue = new Queue(SCANS_QUEUE, { connection: workerConnection() });
 // catch-up run for every company whose last scan is older than a day (schedulers never backfill).
 async function syncScans(catchUp: boolean) {
   try {
-    await syncExpirySchedulers(db(), scansQueue);
+    await syncScanSchedulers(db(), scansQueue);
     if (catchUp) {
-      const n = await enqueueOverdueExpiryScans(db(), scansQueue);
-      if (n) console.log(`[worker] ${n} overdue expiry scan(s) queued`);
+      const n = await enqueueOverdueScans(db(), scansQueue);
+      if (n) console.log(`[worker] ${n} overdue scan(s) queued`);
     }
   } catch (e) {
     console.warn("[worker] scan scheduling failed:", (e as Error).message);

@@ -4,24 +4,15 @@
 // episode) and inserted with ON CONFLICT DO NOTHING, so running the scan twice, or a retry after a
 // crash half-way, makes nothing new. The payload is the company id only.
 //
-// Scheduling (jobs/worker.ts): one BullMQ job scheduler per company, daily at 05:00 in the
-// company's time zone, upserted when the worker starts and every hour after (new companies, time
-// zone changes; schedulers of deleted companies are removed). BullMQ does not backfill missed runs,
-// so on start the worker also enqueues a run for every company whose last run (job_runs) is older
-// than 24 h. E-mail digests are not sent here: they will read the alerts this scan stores.
-import { UnrecoverableError, type Queue } from "bullmq";
+// Scheduling: jobs/definitions/scans.ts (one scheduler per company and scan, in the company's time
+// zone; catch-up on worker start). E-mail is not sent here: the digests read the alerts stored.
 import type { Knex } from "knex";
 import type { DateKind, ItemCategory, StockUnit } from "../../db/types";
 import { crossedThresholds, dateInZone, normaliseWindows, type LotWithStock } from "../../lib/alerts/expiry";
 import { plain } from "../../lib/units/decimal";
-import { SCAN_JOB_OPTIONS } from "../queues";
+import { recordJobRun, scanPayload } from "./job-runs";
 
 export const EXPIRY_SCAN_JOB = "expiry-scan";
-/** Local time of the daily run. */
-export const EXPIRY_SCAN_CRON = "0 5 * * *";
-export const EXPIRY_SCAN_PERIOD_MS = 24 * 3600 * 1000;
-
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 export interface ExpiryAlertData {
   lotId: string;
@@ -55,9 +46,7 @@ interface ScanLot extends LotWithStock {
 
 /** Reads the payload; anything else than a company id can never succeed, so it is not retried. */
 export function expiryScanPayload(data: unknown): { companyId: string } {
-  const companyId = (data as { companyId?: unknown } | null)?.companyId;
-  if (typeof companyId !== "string" || !UUID.test(companyId)) throw new UnrecoverableError("expiry-scan: the payload needs a companyId (uuid).");
-  return { companyId };
+  return { companyId: scanPayload(EXPIRY_SCAN_JOB, data).companyId };
 }
 
 const dayWord = (n: number) => (Math.abs(n) === 1 ? "day" : "days");
@@ -115,53 +104,6 @@ export async function runExpiryScan(knex: Knex, data: unknown, now: Date = new D
     }
   }
   const result = { status: "done" as const, today, lotsChecked: lots.length, crossed: crossed.length, created };
-  await knex("job_runs")
-    .insert({ company_id: companyId, job: EXPIRY_SCAN_JOB, last_run_at: now, last_result: JSON.stringify(result) })
-    .onConflict(["company_id", "job"])
-    .merge()
-    // the company may be deleted between the read and here: then there is nothing to record
-    .catch((e: { code?: string }) => { if (e.code !== "23503") throw e; });
+  await recordJobRun(knex, companyId, EXPIRY_SCAN_JOB, now, result);
   return result;
-}
-
-/**
- * Upserts each company's daily scheduler (05:00 in its time zone) and removes those of companies
- * that are gone. Returns how many companies are scheduled.
- */
-export async function syncExpirySchedulers(knex: Knex, queue: Queue): Promise<number> {
-  const companies: { id: string; time_zone: string }[] = await knex("companies").select("id", "time_zone");
-  for (const c of companies) {
-    await queue.upsertJobScheduler(
-      `${EXPIRY_SCAN_JOB}:${c.id}`,
-      { pattern: EXPIRY_SCAN_CRON, tz: c.time_zone },
-      { name: EXPIRY_SCAN_JOB, data: { companyId: c.id }, opts: SCAN_JOB_OPTIONS },
-    );
-  }
-  const ids = new Set(companies.map((c) => `${EXPIRY_SCAN_JOB}:${c.id}`));
-  for (const s of await queue.getJobSchedulers()) {
-    const id = s.id ?? s.key;
-    if (id.startsWith(`${EXPIRY_SCAN_JOB}:`) && !ids.has(id)) await queue.removeJobScheduler(id);
-  }
-  return companies.length;
-}
-
-/** Companies whose last expiry scan is older than its period (or never ran), as of `now`. */
-export async function overdueExpiryScans(knex: Knex, now: Date = new Date()): Promise<string[]> {
-  const rows: { id: string }[] = await knex("companies as c")
-    .leftJoin("job_runs as r", function () {
-      this.on("r.company_id", "c.id").andOnVal("r.job", EXPIRY_SCAN_JOB);
-    })
-    .where((q) => q.whereNull("r.last_run_at").orWhere("r.last_run_at", "<", new Date(now.getTime() - EXPIRY_SCAN_PERIOD_MS)))
-    .select("c.id");
-  return rows.map((r) => r.id);
-}
-
-/** Enqueues a catch-up run per overdue company; the job id carries the day, so a restart loop adds one. */
-export async function enqueueOverdueExpiryScans(knex: Knex, queue: Queue, now: Date = new Date()): Promise<number> {
-  const ids = await overdueExpiryScans(knex, now);
-  const day = now.toISOString().slice(0, 10);
-  if (ids.length) {
-    await queue.addBulk(ids.map((companyId) => ({ name: EXPIRY_SCAN_JOB, data: { companyId }, opts: { ...SCAN_JOB_OPTIONS, jobId: `${EXPIRY_SCAN_JOB}-catch-up-${companyId}-${day}` } })));
-  }
-  return ids.length;
 }

@@ -9,8 +9,9 @@ import { db } from "../../db/client";
 import { dateInZone } from "../../lib/alerts/expiry";
 import { postMovement } from "../../lib/data/ledger";
 import {
-  enqueueOverdueExpiryScans, EXPIRY_SCAN_CRON, EXPIRY_SCAN_JOB, syncExpirySchedulers, expiryScanPayload, overdueExpiryScans, runExpiryScan,
+  EXPIRY_SCAN_JOB, expiryScanPayload, runExpiryScan,
 } from "../../jobs/definitions/expiry-scan";
+import { enqueueOverdueScans, overdueScans, SCANS, syncScanSchedulers } from "../../jobs/definitions/scans";
 import { SCAN_JOB_OPTIONS, SCANS_QUEUE } from "../../jobs/queues";
 import { createCompany, tag, type TestCompany } from "../support/factory";
 import { currentUser } from "../support/sessions";
@@ -102,11 +103,12 @@ describe("runExpiryScan", () => {
 
   it("finds companies whose last scan is older than a day", async () => {
     const c = await createCompany({ kitchens: 1 });
-    expect(await overdueExpiryScans(db(), NOW)).toContain(c.company.id); // never ran
+    const overdue = async (at: Date) => (await overdueScans(db(), at)).filter((o) => o.scan === EXPIRY_SCAN_JOB).map((o) => o.companyId);
+    expect(await overdue(NOW)).toContain(c.company.id); // never ran
     await runExpiryScan(db(), { companyId: c.company.id }, NOW);
     const hours = (h: number) => new Date(NOW.getTime() + h * 3600_000);
-    expect(await overdueExpiryScans(db(), hours(23))).not.toContain(c.company.id);
-    expect(await overdueExpiryScans(db(), hours(25))).toContain(c.company.id);
+    expect(await overdue(hours(23))).not.toContain(c.company.id);
+    expect(await overdue(hours(25))).toContain(c.company.id);
   });
 });
 
@@ -133,29 +135,31 @@ describe("the worker", () => {
     expect(await job?.getState()).toBe("completed");
   });
 
-  it("keeps one daily scheduler per company in its time zone, and drops those of deleted companies", async () => {
+  it("keeps one scheduler per company and scan in the company's time zone, and drops those of deleted companies", async () => {
     const c = await createCompany({ kitchens: 1, timeZone: "America/Chicago" });
     const gone = await createCompany({ kitchens: 0 });
-    await syncExpirySchedulers(db(), queue);
+    await syncScanSchedulers(db(), queue);
     const ours = async () => (await queue.getJobSchedulers(0, -1)).filter((s) => [c.company.id, gone.company.id].some((id) => (s.id ?? s.key).endsWith(id)));
-    const found = await ours();
-    expect(found.map((s) => [s.id ?? s.key, s.pattern, s.tz]).sort()).toEqual(
-      [[`${EXPIRY_SCAN_JOB}:${c.company.id}`, EXPIRY_SCAN_CRON, "America/Chicago"], [`${EXPIRY_SCAN_JOB}:${gone.company.id}`, EXPIRY_SCAN_CRON, "Europe/London"]].sort(),
+    const expected = (companies: [string, string][]) =>
+      SCANS.flatMap((scan) => companies.map(([id, tz]) => [`${scan.name}:${id}`, scan.cron, tz])).sort();
+    expect((await ours()).map((s) => [s.id ?? s.key, s.pattern, s.tz]).sort()).toEqual(
+      expected([[c.company.id, "America/Chicago"], [gone.company.id, "Europe/London"]]),
     );
-    await syncExpirySchedulers(db(), queue); // again: still one each
-    expect(await ours()).toHaveLength(2);
+    expect(SCANS.find((s) => s.name === EXPIRY_SCAN_JOB)?.cron).toBe("0 5 * * *"); // 05:00 local
+    await syncScanSchedulers(db(), queue); // again: still one each
+    expect(await ours()).toHaveLength(2 * SCANS.length);
     await db()("app_users").where({ company_id: gone.company.id }).delete();
     await db()("companies").where({ id: gone.company.id }).delete();
-    await syncExpirySchedulers(db(), queue);
-    expect((await ours()).map((s) => s.id ?? s.key)).toEqual([`${EXPIRY_SCAN_JOB}:${c.company.id}`]);
+    await syncScanSchedulers(db(), queue);
+    expect((await ours()).map((s) => s.id ?? s.key).sort()).toEqual(expected([[c.company.id, "America/Chicago"]]).map((e) => e[0]));
   });
 
   it("catch-up runs: enqueued for overdue companies, once per day however often the worker starts", async () => {
     const c = await createCompany({ kitchens: 1 });
     await receiveLot(c, 0, "spice", 10);
     const now = new Date();
-    await enqueueOverdueExpiryScans(db(), queue, now);
-    await enqueueOverdueExpiryScans(db(), queue, now); // a restart: same job id, nothing added
+    await enqueueOverdueScans(db(), queue, now);
+    await enqueueOverdueScans(db(), queue, now); // a restart: same job id, nothing added
     let run: { last_result: { created: number } } | undefined;
     for (let i = 0; i < 100 && !run; i++) {
       await sleep(150);
