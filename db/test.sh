@@ -23,6 +23,7 @@ T="${TEST_STATE:-.pgtest}"   # state folder of this run (parallel runs need thei
 export PG_STATE="$T" PG_FAST=1 DB_NAME=hl_test REDIS_DIR="$T/redis" MAIL_DIR="$ROOT/$T/mail"
 export HL_STATE="$T"   # the state folder for lib/env (uploads land in $T/uploads and go with it)
 export SMTP_HOST=127.0.0.1 APP_URL="http://127.0.0.1:$PORT" NEXT_TELEMETRY_DISABLED=1 OUTBOX_SWEEP_MS=1000
+export WORKER_LOCK_MS=4000 WORKER_STALLED_MS=1500   # a killed worker's jobs come back within seconds
 
 pids=()
 cleanup() {

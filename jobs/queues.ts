@@ -6,8 +6,12 @@ import { env } from "../lib/env";
 
 export const MAIL_QUEUE = "mail";
 export const HOUSEKEEPING_QUEUE = "housekeeping";
-/** The alert scans (expiry now; reorder and shortage later): one job per company and scan. */
+/** The alert scans (jobs/definitions/scans.ts): one job per company and scan. */
 export const SCANS_QUEUE = "scans";
+/** Alert e-mail: deliveries per company after each scan and at each digest tick (jobs/definitions/deliver-alerts.ts). */
+export const DIGESTS_QUEUE = "digests";
+/** Every queue, for the job health page (Settings > Jobs); a new queue is added here too. */
+export const QUEUE_NAMES = [MAIL_QUEUE, HOUSEKEEPING_QUEUE, SCANS_QUEUE, DIGESTS_QUEUE] as const;
 
 /** Scans are idempotent (alerts are unique), so retries are safe; old jobs go after a day or a week. */
 export const SCAN_JOB_OPTIONS = {

@@ -1,24 +1,31 @@
 // The job worker: sends outbox e-mail, runs housekeeping and the alert scans. Closes gracefully on SIGTERM/SIGINT.
-// env: DATABASE_URL, REDIS_URL, SMTP_HOST, SMTP_PORT, MAIL_FROM, OUTBOX_SWEEP_MS (10000)
+// env: DATABASE_URL, REDIS_URL, SMTP_HOST, SMTP_PORT, MAIL_FROM, APP_URL (links in e-mail), OUTBOX_SWEEP_MS (10000),
+//      WORKER_LOCK_MS (30000) and WORKER_STALLED_MS (30000): how long a job's lock lasts and how often
+//      jobs of a dead worker are looked for (the tests shorten both)
 import { Queue, UnrecoverableError, Worker, type Job } from "bullmq";
 import { Redis } from "ioredis";
 import nodemailer from "nodemailer";
 import { closeDb, db } from "../db/client";
 import { env } from "../lib/env";
+import { DELIVER_ALERTS_JOB, DELIVER_JOB_OPTIONS, deliverAlerts, DIGEST_TICK_EVERY_MS, DIGEST_TICK_JOB, enqueueDeliveries } from "./definitions/deliver-alerts";
+import { scanPayload } from "./definitions/job-runs";
 import { enqueueOverdueScans, scanByName, syncScanSchedulers } from "./definitions/scans";
 import { runHousekeeping } from "./definitions/housekeeping";
 import { markOutboxEmailFailed, pendingOutboxIds, sendOutboxEmail } from "./definitions/send-email";
-import { enqueueOutboxEmails, HOUSEKEEPING_QUEUE, MAIL_QUEUE, SCANS_QUEUE } from "./queues";
+import { DIGESTS_QUEUE, enqueueOutboxEmails, HOUSEKEEPING_QUEUE, MAIL_QUEUE, SCANS_QUEUE } from "./queues";
 
 const config = env();
 const sweepMs = Number(process.env.OUTBOX_SWEEP_MS ?? 10_000);
 const workerConnection = () => new Redis(config.REDIS_URL, { maxRetriesPerRequest: null });
+const lockDuration = Number(process.env.WORKER_LOCK_MS ?? 30_000);
+const stalledInterval = Number(process.env.WORKER_STALLED_MS ?? 30_000);
+const workerOptions = () => ({ connection: workerConnection(), lockDuration, stalledInterval });
 const transport = nodemailer.createTransport({ host: config.SMTP_HOST, port: config.SMTP_PORT, secure: false, ignoreTLS: true });
 
 const mailWorker = new Worker(
   MAIL_QUEUE,
   async (job: Job) => sendOutboxEmail(db(), transport, config.MAIL_FROM, job.data),
-  { connection: workerConnection(), concurrency: 4 },
+  { ...workerOptions(), concurrency: 4 },
 );
 mailWorker.on("failed", (job, err) => {
   if (!job) return;
@@ -29,24 +36,52 @@ mailWorker.on("failed", (job, err) => {
 const housekeepingWorker = new Worker(
   HOUSEKEEPING_QUEUE,
   async () => runHousekeeping(db()),
-  { connection: workerConnection() },
+  workerOptions(),
 );
 
 // Alert scans: one job per company and scan (payload {companyId}); see jobs/definitions/scans.ts.
+// After a scan, a delivery for the company: people who want alerts at once get them; "run now"
+// (deliverNow) treats every digest as due.
 const scansWorker = new Worker(
   SCANS_QUEUE,
   async (job: Job) => {
     const scan = scanByName(job.name);
     if (!scan) throw new UnrecoverableError(`Unknown scan job ${job.name}`);
-    return scan.run(db(), job.data);
+    const { companyId, deliverNow } = scanPayload(scan.name, job.data);
+    const result = await scan.run(db(), job.data);
+    if ((result as { status?: string }).status !== "company-gone") {
+      await digestsQueue.add(DELIVER_ALERTS_JOB, { companyId, force: deliverNow }, { ...DELIVER_JOB_OPTIONS, jobId: `${DELIVER_ALERTS_JOB}-after-${job.id}` });
+    }
+    return result;
   },
-  { connection: workerConnection(), concurrency: 2 },
+  { ...workerOptions(), concurrency: 2 },
 );
 scansWorker.on("failed", (job, err) => {
   if (job) console.warn(`[worker] scan ${job.name} ${job.id} failed (attempt ${job.attemptsMade}): ${err.message}`);
 });
 
+// Alert e-mail (jobs/definitions/deliver-alerts.ts): a delivery writes outbox rows and their send
+// records in one transaction per person, then queues the rows on the mail queue (the sweep covers a lost enqueue).
+const digestsWorker = new Worker(
+  DIGESTS_QUEUE,
+  async (job: Job) => {
+    if (job.name === DIGEST_TICK_JOB) return { companies: await enqueueDeliveries(db(), digestsQueue) };
+    if (job.name !== DELIVER_ALERTS_JOB) throw new UnrecoverableError(`Unknown digests job ${job.name}`);
+    const result = await deliverAlerts(db(), job.data, config.APP_URL);
+    if (result.status === "done") await enqueueOutboxEmails(mailQueue, result.outboxIds);
+    return result;
+  },
+  { ...workerOptions(), concurrency: 2 },
+);
+digestsWorker.on("failed", (job, err) => {
+  if (job) console.warn(`[worker] ${job.name} ${job.id} failed (attempt ${job.attemptsMade}): ${err.message}`);
+});
+
 const mailQueue = new Queue(MAIL_QUEUE, { connection: workerConnection() });
+const digestsQueue = new Queue(DIGESTS_QUEUE, { connection: workerConnection() });
+await digestsQueue.upsertJobScheduler(DIGEST_TICK_JOB, { every: DIGEST_TICK_EVERY_MS }, { name: DIGEST_TICK_JOB, opts: { removeOnComplete: { count: 100 }, removeOnFail: { count: 100 } } });
+// and one tick now: digest hours that passed while the worker was down go out at once
+await digestsQueue.add(DIGEST_TICK_JOB, {}, { jobId: `${DIGEST_TICK_JOB}-start-${Math.floor(Date.now() / 60_000)}`, removeOnComplete: { count: 100 }, removeOnFail: { count: 100 } });
 const housekeepingQueue = new Queue(HOUSEKEEPING_QUEUE, { connection: workerConnection() });
 await housekeepingQueue.upsertJobScheduler("daily-housekeeping", { every: 24 * 3600 * 1000 }, { name: "housekeeping" });
 const scansQueue = new Queue(SCANS_QUEUE, { connection: workerConnection() });
@@ -82,7 +117,7 @@ async function sweep() {
 }
 void sweep();
 const sweepTimer = setInterval(sweep, sweepMs);
-console.log(`[worker] running: queues ${MAIL_QUEUE}, ${HOUSEKEEPING_QUEUE}, ${SCANS_QUEUE}; SMTP ${config.SMTP_HOST}:${config.SMTP_PORT}`);
+console.log(`[worker] running: queues ${MAIL_QUEUE}, ${HOUSEKEEPING_QUEUE}, ${SCANS_QUEUE}, ${DIGESTS_QUEUE}; SMTP ${config.SMTP_HOST}:${config.SMTP_PORT}`);
 
 let closing = false;
 async function shutdown(signal: string) {
@@ -92,7 +127,8 @@ async function shutdown(signal: string) {
   clearInterval(sweepTimer);
   clearInterval(scanSyncTimer);
   await Promise.allSettled([
-    mailWorker.close(), housekeepingWorker.close(), scansWorker.close(), mailQueue.close(), housekeepingQueue.close(), scansQueue.close(),
+    mailWorker.close(), housekeepingWorker.close(), scansWorker.close(), digestsWorker.close(),
+    mailQueue.close(), housekeepingQueue.close(), scansQueue.close(), digestsQueue.close(),
   ]);
   transport.close();
   await closeDb();

@@ -36,6 +36,7 @@ import type { TransferLotChoices, TransferRequest } from "../data/transfer-reque
 import type { UserSummary } from "../data/users";
 import { DOCUMENT_FILE_TYPES, FILE_TYPES } from "../uploads/file-types";
 import { alertListQuery, alertListResponse, alertResponse, alertSnoozeInput } from "../validation/alerts";
+import { alertPreferencesInput, alertPreferencesResponse } from "../validation/preferences";
 import { invitationAcceptInput, passwordResetConfirmInput, passwordResetRequestInput, signInInput } from "../validation/auth";
 import { companyUpdateInput, invitationCreateInput, kitchenCreateInput, kitchenUpdateInput, userUpdateInput } from "../validation/company";
 import { casingCalculationInput, casingCalculationResponse } from "../validation/casing";
@@ -272,6 +273,11 @@ const bodies = {
     lot: { description: "The id of the lot to send: a lot of the requested item with enough available in the sending kitchen (GET /api/transfer-requests/{id}/lots lists them). Left out: first-expired-first-out, expired lots skipped. An expired lot named here is sent (the ledger refuses only to use one)." },
   }),
   transferDecline: requestBody("TransferDeclineInput", transferDeclineInput),
+  alertPreferences: requestBody("AlertPreferencesInput", alertPreferencesInput, {
+    alertEmail: { description: "off, digest (one e-mail a day at digestHour) or immediate (after each check that finds something).", example: "digest" },
+    digestHour: { description: "The digest's hour, 0-23, in your time zone (your profile's, else the company's).", example: 7 },
+    alertKinds: { description: "Which kinds to e-mail: expiry, reorder, shortage. null: your role's default.", example: ["expiry", "shortage"] },
+  }),
   alertSnooze: requestBody("AlertSnoozeInput", alertSnoozeInput, {
     until: { description: "Snooze until this instant (in the future, at most 30 days ahead).", format: "date-time", example: "2026-12-03T08:00:00+01:00" },
     hours: { description: "Or: snooze for this many whole hours from now (1-720).", example: 24 },
@@ -539,6 +545,20 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
     summary: "The signed-in user",
     description: "Who is signed in: role, company and the kitchens the user acts in.",
     success: { status: 200, description: "The user.", schema: meResponse },
+  },
+  {
+    method: "get", path: "/api/me/preferences", operationId: "getMyPreferences", tag: "Account", auth: true,
+    summary: "Your alert e-mail preferences",
+    description: "How alerts reach you by e-mail: off, a daily digest at your hour in your time zone, or at once; and which kinds. Everyone may read their own.",
+    success: { status: 200, description: "Your preferences.", schema: alertPreferencesResponse },
+  },
+  {
+    method: "put", path: "/api/me/preferences", operationId: "setMyPreferences", tag: "Account", auth: true,
+    summary: "Change your alert e-mail preferences",
+    description: "Replaces all three settings. An alert already e-mailed to you is never e-mailed again, whatever you change; switching to a digest starts from now.",
+    body: bodies.alertPreferences,
+    success: { status: 200, description: "Your preferences as saved.", schema: alertPreferencesResponse },
+    errors: { 422: [["VALIDATION", "A mode other than off/digest/immediate, an hour outside 0-23, or an unknown or repeated kind (details.fields names it)."]] },
   },
   // Company -------------------------------------------------------------------------------
   {
