@@ -22,6 +22,7 @@ export interface CompanyRow {
   short_dated_days_ingredient: number;
   /** the stand-in scanners type for GS on case labels (1-8 characters); null: none */
   scan_separator: string | null;
+  expiry_windows: unknown;
   created_at: Date;
 }
 

@@ -8,6 +8,7 @@ import type { RegulatoryTable } from "../cure/limits";
 import { currencyDecimals, moneyText } from "../purchasing/order-money";
 import { dec, plain } from "../units";
 import { validation } from "../http/errors";
+import { normaliseWindows } from "../alerts/expiry";
 import type { companyCureSettingsInput, companyUpdateInput, WeekStart } from "../validation/company";
 
 export interface Company {
@@ -23,6 +24,8 @@ export interface Company {
   receiving: { priceTolerancePercent: string; shortDatedDays: { cure: number; casing: number; spice: number; ingredient: number } };
   /** what the company's scanners type instead of GS on case labels; null: none */
   scanSeparator: string | null;
+  /** the expiry scan's warnings: days before a lot's date, per category, largest first (lib/alerts/expiry.ts) */
+  expiryWindows: { cure: number[]; casing: number[]; spice: number[]; ingredient: number[] };
 }
 
 const toCompany = (c: CompanyRow): Company => ({
@@ -32,7 +35,14 @@ const toCompany = (c: CompanyRow): Company => ({
     shortDatedDays: { cure: c.short_dated_days_cure, casing: c.short_dated_days_casing, spice: c.short_dated_days_spice, ingredient: c.short_dated_days_ingredient },
   },
   scanSeparator: c.scan_separator,
+  expiryWindows: (() => {
+    const w = normaliseWindows(c.expiry_windows);
+    return { cure: w.cure ?? [], casing: w.casing ?? [], spice: w.spice ?? [], ingredient: w.ingredient ?? [] };
+  })(),
 });
+
+const sortedWindows = (w: Record<string, number[] | undefined>) =>
+  Object.fromEntries(Object.entries(w).map(([k, days]) => [k, [...(days ?? [])].sort((a, b) => b - a)]));
 
 export async function getCompany(actor: CurrentUser): Promise<Company> {
   const row: CompanyRow = await db()("companies").where({ id: actor.companyId }).first();
@@ -53,6 +63,10 @@ export async function updateCompany(actor: CurrentUser, input: z.infer<typeof co
       ...(input.receiving?.priceTolerancePercent !== undefined ? { receiving_price_tolerance_pct: input.receiving.priceTolerancePercent } : {}),
       ...Object.fromEntries(Object.entries(input.receiving?.shortDatedDays ?? {}).map(([k, v]) => [`short_dated_days_${k}`, v])),
       ...(input.scanSeparator !== undefined ? { scan_separator: input.scanSeparator } : {}),
+      // the categories sent replace theirs; the others stay (jsonb || merges at the top level)
+      ...(input.expiryWindows && Object.keys(input.expiryWindows).length
+        ? { expiry_windows: db().raw("expiry_windows || ?::jsonb", [JSON.stringify(sortedWindows(input.expiryWindows))]) }
+        : {}),
     })
     .returning<CompanyRow[]>("*");
   return toCompany(row!);

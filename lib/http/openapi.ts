@@ -210,6 +210,7 @@ const bodies = {
     weekStart: { description: "The first day of the planning week: monday, sunday or saturday. Left out: unchanged.", example: "sunday" },
     approvalThreshold: DECIMAL("Buyers approve purchase orders up to this total, managers and admins above it; in the currency sent, at most its decimals (422 otherwise). Left out: unchanged.", "750.00"),
     scanSeparator: { description: "What the company's scanners type instead of GS (ASCII 29) on case labels, used by POST /api/gs1/parse when a request sends no separator: 1 to 8 characters, at least one never found in GS1 data (e.g. | ~ ^ #); 422 otherwise. null: none. Left out: unchanged.", example: "|" },
+    expiryWindows: { description: "The expiry scan's warnings per category (cure, casing, spice, ingredient): whole days before a lot's date, 1-3650, at most five, each once; [] for none. A category sent replaces its list; one left out is unchanged.", example: { cure: [60, 30, 7] } },
   }),
   kitchenCreate: requestBody("KitchenCreateInput", kitchenCreateInput, {
     code: { description: "Unique in the company; upper-cased.", example: "NORTH-1" },
@@ -570,7 +571,7 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
   {
     method: "patch", path: "/api/company", operationId: "updateCompany", tag: "Company", auth: true,
     summary: "Change the company",
-    description: "Replaces the company's name, default time zone and currency (all three are required) and, when sent, the first day of the planning week (weekStart), the purchase order approval threshold (approvalThreshold), the receiving checks (receiving) and the scanners' stand-in for GS (scanSeparator); left out: unchanged. Admins only.",
+    description: "Replaces the company's name, default time zone and currency (all three are required) and, when sent, the first day of the planning week (weekStart), the purchase order approval threshold (approvalThreshold), the receiving checks (receiving), the scanners' stand-in for GS (scanSeparator) and the expiry scan's warning windows (expiryWindows); left out: unchanged. Admins only.",
     body: bodies.companyUpdate,
     success: { status: 200, description: "The company as saved.", schema: companyResponse },
     errors: { 403: [ADMIN_ONLY("manage the company")] },

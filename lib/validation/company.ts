@@ -26,6 +26,13 @@ export const receivingSettings = z.object({
   shortDatedDays: z.object({ cure: shortDatedDays, casing: shortDatedDays, spice: shortDatedDays, ingredient: shortDatedDays }).partial().optional(),
 });
 
+/** The expiry scan's warning windows per category (companies.expiry_windows): days before a lot's date, at most five each; [] = no warning. */
+const warningDays = z
+  .array(z.number({ error: "Days as whole numbers, e.g. 60, 30, 7." }).int("Days as whole numbers, e.g. 60, 30, 7.").min(1, "At least 1 day.").max(3650, "At most 3650 days."), { error: "A list of days, e.g. [60, 30, 7]." })
+  .max(5, "At most five warnings per category.")
+  .refine((a) => new Set(a).size === a.length, "Each number of days once.");
+export const expiryWindows = z.object({ cure: warningDays, casing: warningDays, spice: warningDays, ingredient: warningDays }).partial();
+
 /** The stand-in scanners type for GS on case labels (companies.scan_separator): the rule of POST /api/gs1/parse's `separator`. */
 export const scanSeparator = z
   .string({ error: "The stand-in is a string, e.g. \"|\", or null for none." })
@@ -44,6 +51,8 @@ export const companyUpdateInput = z.object({
   approvalThreshold: approvalThreshold.optional(),
   /** receiving checks for deliveries; left out: unchanged */
   receiving: receivingSettings.optional(),
+  /** warning windows of the expiry scan per category; a category left out: unchanged */
+  expiryWindows: expiryWindows.optional(),
   /** what scanners type instead of GS; null: none; left out: unchanged */
   scanSeparator: scanSeparator.nullable().optional(),
 });

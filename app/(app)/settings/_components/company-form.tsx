@@ -7,6 +7,13 @@ import type { Company } from "@/lib/data/companies";
 import { WEEK_STARTS, type WeekStart } from "@/lib/validation/company";
 import { updateCompanyAction, type CompanyFormState } from "../actions";
 
+const WARN_FIELDS = [
+  { name: "warnCure", category: "cure", label: "Cures" },
+  { name: "warnCasing", category: "casing", label: "Casings" },
+  { name: "warnSpice", category: "spice", label: "Spices" },
+  { name: "warnIngredient", category: "ingredient", label: "Other ingredients" },
+] as const;
+
 const DAY_NAMES: Record<WeekStart, string> = { monday: "Monday", sunday: "Sunday", saturday: "Saturday" };
 
 export function CompanyForm({ company, zones }: { company: Omit<Company, "id">; zones: string[] }) {
@@ -59,6 +66,21 @@ export function CompanyForm({ company, zones }: { company: Omit<Company, "id">; 
           defaultValue={state.values?.scanSeparator ?? company.scanSeparator ?? ""} errors={state.fieldErrors?.scanSeparator} className="max-w-[8rem]"
           hint="Only for scanners that cannot send GS into a browser: set them to type a character such as | or ~ instead, and enter it here. Leave empty when yours send GS."
         />
+      </fieldset>
+      <fieldset className="flex flex-col gap-3">
+        <legend className="field-label">Warnings before a lot&apos;s date</legend>
+        <p className="text-sm text-brine">
+          The morning check warns when a lot in stock is this many days or fewer from its use-by or best-before date, once for each number.
+          Separate numbers with commas; leave a box empty for no warnings.
+        </p>
+        <div className="grid grid-cols-2 gap-4">
+          {WARN_FIELDS.map((f) => (
+            <TextField
+              key={f.name} name={f.name} label={`${f.label} (days)`} spellCheck={false} autoComplete="off"
+              defaultValue={state.values?.[f.name] ?? company.expiryWindows[f.category].join(", ")} errors={state.fieldErrors?.[f.name]}
+            />
+          ))}
+        </div>
       </fieldset>
       <div className="flex flex-wrap items-center justify-end gap-3">
         <StatusRegion>{state.ok ? state.message : null}</StatusRegion>
