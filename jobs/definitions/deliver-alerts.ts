@@ -80,7 +80,7 @@ export async function deliverAlerts(knex: Knex, data: unknown, appUrl: string, n
       const kinds = alertKindsFor(p.role, p.alert_kinds);
       const digest = p.alert_email === "digest";
       if (digest && !force && !digestDue(now, p.time_zone ?? company.time_zone, p.alert_digest_hour, p.alert_last_digest_at, p.created_at)) return null;
-      const rows: { id: string; kind: DigestAlert["kind"]; title: string; detail: string; subject_type: string; subject_id: string; data: Record<string, unknown>; kitchen_name: string }[] =
+      const rows: { id: string; kind: DigestAlert["kind"]; title: string; detail: string; subject_type: string; subject_id: string; kitchen_id: string; threshold_days: number; data: Record<string, unknown>; kitchen_name: string }[] =
         await trx("alerts as a")
           .join("kitchens as k", "k.id", "a.kitchen_id")
           .leftJoin("alert_states as s", function () {
@@ -96,15 +96,23 @@ export async function deliverAlerts(knex: Knex, data: unknown, appUrl: string, n
           .whereNotExists(trx("alert_deliveries as d").whereRaw("d.alert_id = a.id").andWhere("d.user_id", p.id))
           .orderBy([{ column: "a.created_at" }, { column: "a.threshold_days", order: "desc" }, { column: "a.id" }])
           .limit(MAX_PER_EMAIL)
-          .select("a.id", "a.kind", "a.title", "a.detail", "a.subject_type", "a.subject_id", "a.data", "k.name as kitchen_name");
+          .select("a.id", "a.kind", "a.title", "a.detail", "a.subject_type", "a.subject_id", "a.kitchen_id", "a.threshold_days", "a.data", "k.name as kitchen_name");
       if (digest) await trx("app_users").where({ id: p.id }).update({ alert_last_digest_at: now });
       if (!rows.length) return null;
+      // one line per lot (or item, or batch) and kitchen: a lot first seen past two warnings has two
+      // alerts, both recorded as sent, but the e-mail names it once, at its most urgent warning
+      const lines = new Map<string, (typeof rows)[number]>();
+      for (const r of rows) {
+        const key = `${r.kind}:${r.subject_id}:${r.kitchen_id}`;
+        const seen = lines.get(key);
+        if (!seen || r.threshold_days < seen.threshold_days) lines.set(key, r);
+      }
       const mail = alertDigestEmail({
         name: p.name,
         companyName: company.name,
         mode: digest ? "digest" : "immediate",
         appUrl,
-        alerts: rows.map((r) => ({
+        alerts: [...lines.values()].map((r) => ({
           id: r.id, kind: r.kind, title: r.title, detail: r.detail, kitchenName: r.kitchen_name,
           aboutCure: r.data.category === "cure" || (Array.isArray(r.data.categories) && r.data.categories.includes("cure")),
           path: alertPath(r.kind, r.subject_type, r.subject_id),

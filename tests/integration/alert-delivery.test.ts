@@ -145,10 +145,14 @@ describe("through the worker and the mail catcher", () => {
     await enqueueScanNow(queue, EXPIRY_SCAN_JOB, co.company.id);
     const to = co.users.manager.email;
     const [mail] = await waitForMails({ to, after: start, count: 1, timeoutMs: 15_000 });
-    expect(mail!.subject).toBe(`${co.company.name}: 3 alerts in today's digest`);
+    // three alerts (60, 30, 7 days) about one lot: one line, at its most urgent warning
+    expect(mail!.subject).toBe(`${co.company.name}: 1 alert in today's digest`);
+    expect(mail!.text).toContain("(7-day warning)");
+    expect(mail!.text).not.toContain("(60-day warning)");
     expect(mail!.text).toContain(CURE_CAUTION);
     expect(mail!.text).toContain(`${process.env.APP_URL}/alerts`);
-    expect(mail!.html).toContain("Lots nearing their date (3)");
+    expect(mail!.html).toContain("Lots nearing their date (1)");
+    expect(await db()("alert_deliveries").where({ user_id: co.users.manager.id })).toHaveLength(3); // all three recorded as sent
     expect(mail!.companyId).toBe(co.company.id);
     // the admin, the buyer and the kitchen lead get theirs; the accountant nothing
     await waitForMails({ to: co.users.admin.email, after: start, count: 1, timeoutMs: 10_000 });
