@@ -1,7 +1,8 @@
 // The job worker: sends outbox e-mail, runs housekeeping and the alert scans. Closes gracefully on SIGTERM/SIGINT.
 // env: DATABASE_URL, REDIS_URL, SMTP_HOST, SMTP_PORT, MAIL_FROM, APP_URL (links in e-mail), OUTBOX_SWEEP_MS (10000),
 //      WORKER_LOCK_MS (30000) and WORKER_STALLED_MS (30000): how long a job's lock lasts and how often
-//      jobs of a dead worker are looked for (the tests shorten both)
+//      jobs of a dead worker are looked for (the tests shorten both); WORKER_SYNC_MS (600000): how
+//      often the schedules are checked and overdue scans caught up
 import { Queue, UnrecoverableError, Worker, type Job } from "bullmq";
 import { Redis } from "ioredis";
 import nodemailer from "nodemailer";
@@ -79,28 +80,37 @@ digestsWorker.on("failed", (job, err) => {
 
 const mailQueue = new Queue(MAIL_QUEUE, { connection: workerConnection() });
 const digestsQueue = new Queue(DIGESTS_QUEUE, { connection: workerConnection() });
-await digestsQueue.upsertJobScheduler(DIGEST_TICK_JOB, { every: DIGEST_TICK_EVERY_MS }, { name: DIGEST_TICK_JOB, opts: { removeOnComplete: { count: 100 }, removeOnFail: { count: 100 } } });
-// and one tick now: digest hours that passed while the worker was down go out at once
-await digestsQueue.add(DIGEST_TICK_JOB, {}, { jobId: `${DIGEST_TICK_JOB}-start-${Math.floor(Date.now() / 60_000)}`, removeOnComplete: { count: 100 }, removeOnFail: { count: 100 } });
 const housekeepingQueue = new Queue(HOUSEKEEPING_QUEUE, { connection: workerConnection() });
-await housekeepingQueue.upsertJobScheduler("daily-housekeeping", { every: 24 * 3600 * 1000 }, { name: "housekeeping" });
 const scansQueue = new Queue(SCANS_QUEUE, { connection: workerConnection() });
+const KEEP_FEW = { removeOnComplete: { count: 100 }, removeOnFail: { count: 100 } };
 
-// Per-company schedulers at start and hourly (new companies, changed time zones); on start, a
-// catch-up run for every company whose last scan is older than a day (schedulers never backfill).
-async function syncScans(catchUp: boolean) {
+// The schedules, at start and every WORKER_SYNC_MS (10 min): per-company scan schedulers (new
+// companies, changed time zones), the digest tick and housekeeping, and a catch-up run of every scan
+// whose last run is older than its period (BullMQ schedulers never backfill). Redis runs without
+// persistence, so one that restarts comes back empty: this sets it up again within minutes and the
+// scans it missed run at once. Interval schedulers are only created when missing (re-adding one
+// could move its next run); cron ones are upserted (their next run is fixed by the clock).
+async function syncSchedules() {
   try {
-    await syncScanSchedulers(db(), scansQueue);
-    if (catchUp) {
-      const n = await enqueueOverdueScans(db(), scansQueue);
-      if (n) console.log(`[worker] ${n} overdue scan(s) queued`);
+    if (!(await digestsQueue.getJobScheduler(DIGEST_TICK_JOB))) {
+      await digestsQueue.upsertJobScheduler(DIGEST_TICK_JOB, { every: DIGEST_TICK_EVERY_MS }, { name: DIGEST_TICK_JOB, opts: KEEP_FEW });
     }
+    if (!(await housekeepingQueue.getJobScheduler("daily-housekeeping"))) {
+      await housekeepingQueue.upsertJobScheduler("daily-housekeeping", { every: 24 * 3600 * 1000 }, { name: "housekeeping" });
+    }
+    await syncScanSchedulers(db(), scansQueue);
+    const n = await enqueueOverdueScans(db(), scansQueue);
+    if (n) console.log(`[worker] ${n} overdue scan(s) queued`);
   } catch (e) {
-    console.warn("[worker] scan scheduling failed:", (e as Error).message);
+    console.warn("[worker] scheduling failed (retried at the next sync):", (e as Error).message);
   }
 }
-await syncScans(true);
-const scanSyncTimer = setInterval(() => void syncScans(false), 3600 * 1000);
+await syncSchedules();
+// and one digest tick now: digest hours that passed while the worker was down go out at once
+await digestsQueue
+  .add(DIGEST_TICK_JOB, {}, { ...KEEP_FEW, jobId: `${DIGEST_TICK_JOB}-start-${Math.floor(Date.now() / 60_000)}` })
+  .catch((e: Error) => console.warn("[worker] start tick not queued:", e.message));
+const scheduleSyncTimer = setInterval(() => void syncSchedules(), Number(process.env.WORKER_SYNC_MS ?? 600_000));
 
 // The outbox sweep: e-mails written while Redis was down (or whose enqueue was lost) get queued.
 let sweeping = false;
@@ -125,7 +135,7 @@ async function shutdown(signal: string) {
   closing = true;
   console.log(`[worker] ${signal}: finishing current jobs`);
   clearInterval(sweepTimer);
-  clearInterval(scanSyncTimer);
+  clearInterval(scheduleSyncTimer);
   await Promise.allSettled([
     mailWorker.close(), housekeepingWorker.close(), scansWorker.close(), digestsWorker.close(),
     mailQueue.close(), housekeepingQueue.close(), scansQueue.close(), digestsQueue.close(),

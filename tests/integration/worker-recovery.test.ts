@@ -1,5 +1,7 @@
 // The worker killed (SIGKILL) in the middle of sending alert e-mail, while the SMTP catcher holds
 // its reply (SMTP_DELAY_MS), then started again: every alert reaches every recipient, none twice.
+// Then Redis loses everything (as a restart without persistence does): the worker sets its
+// schedules up again (WORKER_SYNC_MS) and the scan it missed runs.
 //
 // This test runs its own world so the suite's worker cannot help: a database of its own (migrated
 // here), a Redis database index of its own, its own catcher and its own worker process, with short
@@ -58,7 +60,8 @@ async function waitFor<T>(what: string, probe: () => Promise<T | undefined | fal
   }
 }
 
-const startWorker = () => start("jobs/worker.ts", { OUTBOX_SWEEP_MS: "500", WORKER_LOCK_MS: "3000", WORKER_STALLED_MS: "1000", APP_URL: "http://app.test" });
+const startWorker = () =>
+  start("jobs/worker.ts", { OUTBOX_SWEEP_MS: "500", WORKER_LOCK_MS: "3000", WORKER_STALLED_MS: "1000", WORKER_SYNC_MS: "1000", APP_URL: "http://app.test" });
 const stored = () =>
   readdirSync(mailDir).filter((f) => f.endsWith(".json") && !f.startsWith(".")).map((f) => JSON.parse(readFileSync(join(mailDir, f), "utf8")) as { to: string[]; text: string; subject: string });
 
@@ -90,6 +93,9 @@ afterAll(async () => {
   rmSync(mailDir, { recursive: true, force: true });
 });
 
+let companyId = "";
+let managerEmail = "";
+
 it("a worker killed mid-send and started again delivers every alert to every recipient, none twice", async () => {
   const { db } = await import("../../db/client");
   const { createCompany, createUser, tag } = await import("../support/factory");
@@ -101,6 +107,8 @@ it("a worker killed mid-send and started again delivers every alert to every rec
   const { MAIL_QUEUE, SCANS_QUEUE } = await import("../../jobs/queues");
 
   const co = await createCompany({ kitchens: 2 });
+  companyId = co.company.id;
+  managerEmail = co.users.manager.email;
   const lead2 = await createUser(co.company.id, "kitchen_lead", { kitchenIds: [co.kitchens[1]!.id] });
   // four cure lots: kitchen 1 at 5 and 20 days, kitchen 2 at 40 and 3 days (60/30/7 windows)
   const manager = await currentUser(co.users.manager.id);
@@ -157,3 +165,42 @@ it("a worker killed mid-send and started again delivers every alert to every rec
   expect((await db()("outbox_emails").where({ company_id: co.company.id, status: "sent" })).length).toBe(recipients.length);
   await Promise.all([queue.close(), mailQueue.close()]);
 }, 90_000);
+
+it("a Redis that comes back empty: the worker sets its schedules up again and runs the scans it missed", async () => {
+  const { db } = await import("../../db/client");
+  const { createItem } = await import("../support/stock");
+  const { tag } = await import("../support/factory");
+  const { currentUser } = await import("../support/sessions");
+  const { postMovement } = await import("../../lib/data/ledger");
+  const { EXPIRY_SCAN_JOB } = await import("../../jobs/definitions/expiry-scan");
+  const { SCANS_QUEUE, DIGESTS_QUEUE } = await import("../../jobs/queues");
+  expect(worker?.exitCode).toBeNull(); // the restarted worker of the test above is running
+
+  // the last expiry scan two days ago, and a new lot it has not seen
+  await db()("job_runs").where({ company_id: companyId, job: EXPIRY_SCAN_JOB }).update({ last_run_at: new Date(Date.now() - 2 * 24 * 3600_000) });
+  const manager = (await db()("app_users").where({ company_id: companyId, role: "manager" }).first()) as { id: string };
+  const item = await createItem(companyId, { category: "cure", trackLots: true, trackDates: true });
+  const kitchen = (await db()("kitchens").where({ company_id: companyId }).orderBy("code").first()) as { code: string };
+  const lot = `R-${tag()}`;
+  await postMovement(await currentUser(manager.id), {
+    kind: "receipt", kitchen: kitchen.code, item: item.sku, quantity: "80", unit: "g",
+    lot: { code: lot, date: formatISO(addDays(new Date(), 50), { representation: "date" }), dateKind: "use_by", unitCost: "0.02" },
+  } as never);
+
+  const redis = new Redis(redisUrl);
+  await redis.flushdb(); // what a restarted Redis without persistence holds: nothing
+  const scans = new Queue(SCANS_QUEUE, { connection: new Redis(redisUrl, { maxRetriesPerRequest: null }) });
+  const digests = new Queue(DIGESTS_QUEUE, { connection: new Redis(redisUrl, { maxRetriesPerRequest: null }) });
+  expect(await scans.getJobScheduler(`${EXPIRY_SCAN_JOB}:${companyId}`)).toBeUndefined();
+
+  await waitFor("the schedules", async () => (await scans.getJobScheduler(`${EXPIRY_SCAN_JOB}:${companyId}`)) && (await digests.getJobScheduler("digest-tick")));
+  await waitFor("the missed scan", async () => {
+    const run = await db()("job_runs").where({ company_id: companyId, job: EXPIRY_SCAN_JOB }).first();
+    return run && Date.now() - new Date(run.last_run_at).getTime() < 60_000;
+  });
+  const alert = await waitFor("the new lot's alert", async () => db()("alerts").where({ company_id: companyId }).whereRaw("data->>'lotCode' = ?", [lot]).first());
+  expect(alert.threshold_days).toBe(60);
+  // and the people who want alerts at once get it
+  await waitFor("its e-mail", async () => stored().some((m) => m.to[0] === managerEmail && m.text.includes(lot)), 20_000);
+  await Promise.all([redis.quit(), scans.close(), digests.close()]);
+}, 60_000);
