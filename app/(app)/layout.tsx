@@ -1,12 +1,14 @@
-import { Bell, LogOut } from "lucide-react";
+import { Bell, Clock, LogOut } from "lucide-react";
 import { Rail } from "@/components/shell/rail";
 import { KitchenSwitcher } from "@/components/shell/kitchen-switcher";
 import { sectionsFor } from "@/components/shell/sections";
 import { Wordmark } from "@/components/brand/logo-mark";
 import { QueryProvider } from "@/components/providers/query-provider";
-import { canSomewhere } from "@/lib/auth/permissions";
+import { can, canSomewhere } from "@/lib/auth/permissions";
 import { requireUser } from "@/lib/auth/session";
 import { unreadAlertCount } from "@/lib/data/alerts";
+import { alertsDelayed } from "@/lib/data/job-health";
+import { delayInWords } from "@/lib/alerts/scan-words";
 import { getCurrentKitchen } from "@/lib/data/current-kitchen";
 import { ROLE_LABELS } from "@/lib/auth/roles";
 import Link from "next/link";
@@ -20,7 +22,8 @@ export default async function AppLayout({ children }: { children: React.ReactNod
   const kitchen = await getCurrentKitchen(user);
   const sections = sectionsFor(user).map(({ key, href, label }) => ({ key, href, label }));
   const alertsShown = canSomewhere(user, "alerts.read");
-  const unread = alertsShown ? await unreadAlertCount(user) : 0;
+  // the delay check waits at most ~500 ms for Redis and remembers its answer a few seconds
+  const [unread, delay] = alertsShown ? await Promise.all([unreadAlertCount(user), alertsDelayed(user)]) : [0, null];
   return (
     <div className="flex min-h-screen">
       <Rail sections={sections} />
@@ -32,6 +35,18 @@ export default async function AppLayout({ children }: { children: React.ReactNod
           </div>
           <div className="flex items-center gap-4">
             <KitchenSwitcher kitchens={user.kitchens} currentId={kitchen?.id ?? null} />
+            {delay?.delayed ? (
+              <Link
+                href={can(user, "jobs.manage") ? "/settings/jobs" : "/alerts"}
+                title={delayInWords(delay)}
+                className="flex min-h-touch min-w-touch items-center justify-center gap-1.5 whitespace-nowrap rounded-md border border-amber/25 bg-amber-soft px-2.5 text-sm font-semibold text-amber hover:underline"
+              >
+                <Clock aria-hidden className="h-5 w-5" />
+                {/* the words from 1280 px; below, the clock (and the title) keep the header on one line */}
+                <span aria-hidden className="hidden xl:inline">Alerts delayed</span>
+                <span className="sr-only">{delayInWords(delay)}</span>
+              </Link>
+            ) : null}
             {alertsShown ? (
               <Link
                 href="/alerts"

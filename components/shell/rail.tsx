@@ -2,11 +2,12 @@
 
 import Link from "next/link";
 import { usePathname } from "next/navigation";
-import { BarChart3, Boxes, CalendarRange, Settings, Truck, type LucideIcon } from "lucide-react";
+import { BarChart3, Boxes, CalendarRange, Gauge, Settings, Truck, type LucideIcon } from "lucide-react";
 import { LogoMark } from "@/components/brand/logo-mark";
 import type { SectionKey } from "./sections";
 
 const ICONS: Record<SectionKey, LucideIcon> = {
+  overview: Gauge,
   stock: Boxes,
   planning: CalendarRange,
   purchasing: Truck,
@@ -18,7 +19,7 @@ export function Rail({ sections }: { sections: { key: SectionKey; href: string; 
   const pathname = usePathname();
   return (
     <nav aria-label="Main" className="flex w-[92px] shrink-0 flex-col items-center gap-1 bg-smoke py-4 text-smoke-text print:hidden">
-      <Link href="/stock" className="mb-4 flex min-h-touch min-w-touch items-center justify-center rounded-md text-smoke-text" aria-label="Hank & Lot home">
+      <Link href="/" className="mb-4 flex min-h-touch min-w-touch items-center justify-center rounded-md text-smoke-text" aria-label="Hank & Lot home">
         <LogoMark className="h-9 w-9" />
       </Link>
       <ul className="flex w-full flex-col gap-1 px-2">

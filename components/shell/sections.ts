@@ -2,7 +2,7 @@
 // module (display only: every page and endpoint still asks lib/auth/permissions itself).
 import { canSomewhere, type Action, type Actor } from "@/lib/auth/permissions";
 
-export type SectionKey = "stock" | "planning" | "purchasing" | "reports" | "settings";
+export type SectionKey = "overview" | "stock" | "planning" | "purchasing" | "reports" | "settings";
 
 export interface Section {
   key: SectionKey;
@@ -13,6 +13,7 @@ export interface Section {
 }
 
 export const SECTIONS: readonly Section[] = [
+  { key: "overview", href: "/overview", label: "Overview", needs: "dashboard.read" },
   { key: "stock", href: "/stock", label: "Stock", needs: "stock.read" },
   { key: "planning", href: "/planning", label: "Planning", needs: "planning.manage" },
   { key: "purchasing", href: "/purchasing", label: "Buying", needs: "purchasing.read" },

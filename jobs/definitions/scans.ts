@@ -11,6 +11,8 @@ import type { Queue } from "bullmq";
 import type { Knex } from "knex";
 import { SCAN_JOB_OPTIONS } from "../queues";
 import { EXPIRY_SCAN_JOB, runExpiryScan } from "./expiry-scan";
+import { REORDER_SCAN_JOB, runReorderScan } from "./reorder-scan";
+import { runShortageScan, SHORTAGE_SCAN_JOB } from "./shortage-scan";
 
 export interface ScanDefinition {
   name: string;
@@ -27,6 +29,8 @@ const DAY = 24 * 3600 * 1000;
 
 export const SCANS: readonly ScanDefinition[] = [
   { name: EXPIRY_SCAN_JOB, label: "Lots nearing their date", cron: "0 5 * * *", periodMs: DAY, run: runExpiryScan },
+  { name: REORDER_SCAN_JOB, label: "Items below their reorder point", cron: "15 5 * * *", periodMs: DAY, run: runReorderScan },
+  { name: SHORTAGE_SCAN_JOB, label: "Batches of the next 7 days short of stock", cron: "30 5 * * *", periodMs: DAY, run: runShortageScan },
 ];
 
 export const SCAN_NAMES = SCANS.map((s) => s.name);

@@ -35,7 +35,9 @@ export type Action =
   | "reports.read"
   | "reports.export"
   // alerts from the scans in jobs/ (expiry now; reorder and shortage later)
-  | "alerts.read";
+  | "alerts.read"
+  // the Overview page and GET /api/dashboard (kitchen leads: their own kitchens only)
+  | "dashboard.read";
 
 /** Where a role may do an action: nowhere, in every kitchen of its company, or only in its own kitchens. */
 type Reach = "none" | "company" | "own";
@@ -75,6 +77,8 @@ export const MATRIX: Record<Action, Record<Role, Reach>> = {
   "reports.export":    { admin: ALL, manager: ALL, buyer: "none", kitchen_lead: "none", accountant: ALL },
   // checked per alert against its kitchen
   "alerts.read":       { admin: ALL, manager: ALL, buyer: ALL, kitchen_lead: OWN, accountant: "none" },
+  // checked per kitchen: each panel counts only the kitchens the user may read
+  "dashboard.read":    { admin: ALL, manager: ALL, buyer: ALL, kitchen_lead: OWN, accountant: ALL },
 };
 
 export interface Actor {

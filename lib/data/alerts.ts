@@ -1,5 +1,6 @@
-// The in-app alert list: alerts the scans in jobs/ stored (jobs/definitions/expiry-scan.ts), as
-// each user sees them. Reads PostgreSQL only, so the list works while Redis is down.
+// The in-app alert list: alerts the scans in jobs/ stored (jobs/definitions/expiry-scan.ts,
+// reorder-scan.ts, shortage-scan.ts), as each user sees them. Cleared reorder and shortage alerts
+// (the need went away) are left out unless asked for, and never count as unread. Reads PostgreSQL only, so the list works while Redis is down.
 //
 // Visibility: alerts.read per alert kitchen (kitchen leads: their own kitchens). Another company's
 // alert is 404; one of a kitchen the user may not see is 403. Acknowledging and snoozing are per
@@ -25,6 +26,8 @@ export interface Alert {
   detail: string;
   data: Record<string, unknown>;
   createdAt: string;
+  /** reorder and shortage: when a scan found the condition gone; null while it holds (expiry: always null) */
+  clearedAt: string | null;
   acknowledgedAt: string | null;
   snoozedUntil: string | null;
   unread: boolean;
@@ -33,16 +36,20 @@ export interface Alert {
 
 interface AlertRow {
   id: string; kind: AlertKind; kitchen_id: string; kitchen_code: string; kitchen_name: string; subject_type: string; subject_id: string;
-  threshold_days: number; title: string; detail: string; data: Record<string, unknown>; created_at: Date;
+  threshold_days: number; title: string; detail: string; data: Record<string, unknown>; created_at: Date; cleared_at: Date | null;
   acknowledged_at: Date | null; snoozed_until: Date | null; unread: boolean;
 }
+
+/** Expiry and reorder alerts name one item's category; a shortage alert the categories of its lines short. */
+const aboutCure = (data: Record<string, unknown>) =>
+  data.category === "cure" || (Array.isArray(data.categories) && data.categories.includes("cure"));
 
 function toAlert(r: AlertRow): Alert {
   return {
     id: r.id, kind: r.kind, kitchen: { id: r.kitchen_id, code: r.kitchen_code, name: r.kitchen_name },
     subjectType: r.subject_type, subjectId: r.subject_id, thresholdDays: r.threshold_days, title: r.title, detail: r.detail, data: r.data,
-    createdAt: r.created_at.toISOString(), acknowledgedAt: r.acknowledged_at?.toISOString() ?? null, snoozedUntil: r.snoozed_until?.toISOString() ?? null,
-    unread: r.unread, caution: r.data.category === "cure" ? CURE_CAUTION : null,
+    createdAt: r.created_at.toISOString(), clearedAt: r.cleared_at?.toISOString() ?? null, acknowledgedAt: r.acknowledged_at?.toISOString() ?? null, snoozedUntil: r.snoozed_until?.toISOString() ?? null,
+    unread: r.unread, caution: aboutCure(r.data) ? CURE_CAUTION : null,
   };
 }
 
@@ -62,11 +69,12 @@ function baseQuery(user: CurrentUser, kitchenIds: readonly string[]) {
     .whereIn("a.kitchen_id", kitchenIds);
 }
 
-const UNREAD = "(s.acknowledged_at is null and (s.snoozed_until is null or s.snoozed_until <= now()))";
+// a cleared alert (the shortage or reorder need went away) is never unread
+const UNREAD = "(a.cleared_at is null and s.acknowledged_at is null and (s.snoozed_until is null or s.snoozed_until <= now()))";
 
 const SELECT = [
   "a.id", "a.kind", "a.kitchen_id", "k.code as kitchen_code", "k.name as kitchen_name", "a.subject_type", "a.subject_id", "a.threshold_days",
-  "a.title", "a.detail", "a.data", "a.created_at", "s.acknowledged_at", "s.snoozed_until",
+  "a.title", "a.detail", "a.data", "a.created_at", "a.cleared_at", "s.acknowledged_at", "s.snoozed_until",
 ];
 
 /** The user's unread alerts across every kitchen they may see (the shell's badge). 0 without alerts.read. */
@@ -94,6 +102,7 @@ export async function listAlerts(user: CurrentUser, q: AlertListQuery): Promise<
   let query = baseQuery(user, kitchenIds).select([...SELECT, db().raw(`${UNREAD} as unread`)]);
   if (q.kind) query = query.where("a.kind", q.kind);
   if (!q.includeAcknowledged) query = query.whereNull("s.acknowledged_at");
+  if (!q.includeCleared) query = query.whereNull("a.cleared_at");
   const rows: AlertRow[] = await query.orderBy([{ column: "a.created_at", order: "desc" }, { column: "a.threshold_days" }, { column: "a.id" }]).limit(q.limit);
   return { alerts: rows.map(toAlert), unreadCount: await unreadAlertCount(user) };
 }

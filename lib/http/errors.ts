@@ -23,6 +23,8 @@ export const payloadTooLarge = (limitBytes: number) =>
   new AppError(413, "PAYLOAD_TOO_LARGE", `The request body is larger than ${limitBytes} bytes.`);
 export const unsupportedMediaType = (expected = "application/json") =>
   new AppError(415, "UNSUPPORTED_MEDIA_TYPE", `Send the body as ${expected}.`);
+/** A service the request needs (the job queue's Redis) is not answering; trying later may work. */
+export const serviceUnavailable = (message: string, code = "SERVICE_UNAVAILABLE") => new AppError(503, code, message);
 export const rateLimited = (message = "Too many attempts. Try again later.", retryAfterSeconds?: number) =>
   new AppError(429, "RATE_LIMITED", message, retryAfterSeconds ? { retryAfterSeconds } : undefined);
 

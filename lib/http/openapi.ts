@@ -18,6 +18,7 @@ import { z } from "zod";
 import type { meBody } from "../../app/api/me/me-body";
 import { SESSION_COOKIE } from "../auth/session";
 import type { Alert } from "../data/alerts";
+import type { Dashboard } from "../data/dashboard";
 import type { CapturedMail } from "../data/captured-mail";
 import type { CasingCalculation } from "../data/casing-calculation";
 import type { Batch, ReserveAllResult } from "../data/batches";
@@ -25,6 +26,7 @@ import type { BatchTrace, LotTrace } from "../data/trace";
 import type { Company } from "../data/companies";
 import type { Recipe, RecipeSummary } from "../data/recipes";
 import type { InvitationSummary } from "../data/invitations";
+import type { JobHealth } from "../data/job-health";
 import type { Item } from "../data/items";
 import type { Kitchen } from "../data/kitchens";
 import type { Supplier, SupplierItem } from "../data/suppliers";
@@ -37,6 +39,7 @@ import type { UserSummary } from "../data/users";
 import { DOCUMENT_FILE_TYPES, FILE_TYPES } from "../uploads/file-types";
 import { alertListQuery, alertListResponse, alertResponse, alertSnoozeInput } from "../validation/alerts";
 import { alertPreferencesInput, alertPreferencesResponse } from "../validation/preferences";
+import { dashboardResponse } from "../validation/dashboard";
 import { invitationAcceptInput, passwordResetConfirmInput, passwordResetRequestInput, signInInput } from "../validation/auth";
 import { companyUpdateInput, invitationCreateInput, kitchenCreateInput, kitchenUpdateInput, userUpdateInput } from "../validation/company";
 import { casingCalculationInput, casingCalculationResponse } from "../validation/casing";
@@ -46,6 +49,7 @@ import {
   reserveAllResponse, traceQuery,
 } from "../validation/batches";
 import { gs1LabelResponse, gs1ParseInput } from "../validation/gs1";
+import { jobHealthResponse, retryJobResponse, runScanResponse } from "../validation/jobs";
 import { houseLimitsInput, houseLimitsResponse } from "../validation/house-limits";
 import { itemCreateInput, itemListQuery, itemPatchInput } from "../validation/items";
 import {
@@ -113,6 +117,8 @@ export type ResponseShapesMatch = [
   Assert<Same<z.infer<typeof priceListImportListResponse>, { imports: PriceListImport[] }>>,
   Assert<Same<z.infer<typeof itemPricesResponse>, ItemPrices>>,
   Assert<Same<z.infer<typeof alertResponse>, Alert>>,
+  Assert<Same<z.infer<typeof jobHealthResponse>, JobHealth>>,
+  Assert<Same<z.infer<typeof dashboardResponse>, Dashboard>>,
 ];
 
 // ---------------------------------------------------------------------------------------------
@@ -361,7 +367,7 @@ const bodies = {
 // ---------------------------------------------------------------------------------------------
 // Errors: what the wrapper adds, plus what each endpoint's data layer can throw.
 
-type ErrorStatus = 400 | 401 | 403 | 404 | 409 | 413 | 415 | 422 | 429 | 500;
+type ErrorStatus = 400 | 401 | 403 | 404 | 409 | 413 | 415 | 422 | 429 | 500 | 503;
 /** [code, when it happens] */
 type Cause = readonly [code: string, when: string];
 
@@ -389,6 +395,7 @@ const STATUS_TITLES: Record<ErrorStatus, string> = {
   422: "Validation failed",
   429: "Rate limited",
   500: "Internal error",
+  503: "Service unavailable",
 };
 
 const ADMIN_ONLY = (what: string): Cause => ["FORBIDDEN", `Your role may not ${what} (admins only).`];
@@ -442,7 +449,9 @@ export const TAGS = [
   { name: "Users", description: "People in the company, their roles and kitchens. Admins only." },
   { name: "Invitations", description: "Single-use e-mailed links that create accounts." },
   { name: "Mail catcher", description: "Local development only: e-mail caught instead of sent." },
+  { name: "Dashboard", description: "The Overview: cure expiring soon, items below their reorder point, next week's shortages, stock value by kitchen and the usage trend, over the kitchens you may read. Money at receipt cost." },
   { name: "Alerts", description: "What the daily scans found (lots near their date; later reorder and shortage), per kitchen, with each user's acknowledgements and snoozes." },
+  { name: "Jobs", description: "The background jobs behind alerts and e-mail (admins): queue counts, your company's failed jobs, each scan's last and next run, running a scan now." },
   { name: "Reference", description: "This document." },
 ] as const;
 type TagName = (typeof TAGS)[number]["name"];
@@ -956,15 +965,24 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
       409: [["REQUEST_CLOSED", "Already fulfilled, declined or cancelled."]],
     },
   },
+  // Dashboard -----------------------------------------------------------------------------
+  {
+    method: "get", path: "/api/dashboard", operationId: "getDashboard", tag: "Dashboard", auth: true,
+    summary: "The Overview's panels",
+    description: "Every panel of the Overview page at once, over the open kitchens you may read (dashboard.read: admins, managers, buyers and accountants every kitchen, kitchen leads their own). cureExpiring: cure lots with stock dated up to today + the company's largest cure warning window, past-date ones too, fewest days left first. belowReorder: what Buying > Reorder suggests (the same rule and figures). shortages: the short lines of planned and reserved batches from today to today + 6, as the planner works them out. stockValue: on hand x each lot's unit cost per kitchen. usageTrend: use and waste (net of reversals) per month and category over the last six months, this one included. Money is at receipt cost (each lot's unit cost when received: there is no cost formula yet), rounded half-even to the currency's decimals once per value shown; totals add the values shown. Dates and months are the company's.",
+    success: { status: 200, description: "The panels.", schema: dashboardResponse },
+    errors: { 403: [["FORBIDDEN", "A kitchen lead with no kitchen assigned."]] },
+  },
   // Alerts --------------------------------------------------------------------------------
   {
     method: "get", path: "/api/alerts", operationId: "listAlerts", tag: "Alerts", auth: true,
     summary: "Your alerts",
-    description: "Alerts of the kitchens you may see (alerts.read: admins, managers and buyers every kitchen, kitchen leads their own), newest first. Left out unless asked: those you acknowledged. Snoozed alerts are listed but not unread. unreadCount counts your unread alerts in every kitchen you may see, whatever the filters. The daily expiry scan raises one alert per lot, kitchen and crossed warning window (company setting; defaults cure 60/30/7 days, casings 30/7, spices 90/30). Reads the database only: the list answers while the job queue is down, though new alerts then wait for it.",
+    description: "Alerts of the kitchens you may see (alerts.read: admins, managers and buyers every kitchen, kitchen leads their own), newest first. Left out unless asked: those you acknowledged, and reorder and shortage alerts that have cleared. Snoozed alerts are listed but not unread; cleared ones are never unread. unreadCount counts your unread alerts in every kitchen you may see, whatever the filters. The daily expiry scan raises one alert per lot, kitchen and crossed warning window (company setting; defaults cure 60/30/7 days, casings 30/7, spices 90/30). The daily reorder scan raises one per kitchen and item below its reorder point (the figures of GET /api/reorder-suggestions), the shortage scan one per batch of the next 7 days (today and six more) short of stock; each clears when the need goes and a return is a new alert. Reads the database only: the list answers while the job queue is down, though new alerts then wait for it.",
     query: alertListQuery.extend({
       kind: alertListQuery.shape.kind.meta({ description: "Only this kind." }),
       kitchen: alertListQuery.shape.kitchen.meta({ description: "Only this kitchen, by id or code.", example: "YARD" }),
       includeAcknowledged: alertListQuery.shape.includeAcknowledged.meta({ description: "true: also those you acknowledged." }),
+      includeCleared: alertListQuery.shape.includeCleared.meta({ description: "true: also reorder and shortage alerts whose need has gone (clearedAt set)." }),
       limit: alertListQuery.shape.limit.meta({ description: "At most this many (1-500, default 200)." }),
     }),
     success: { status: 200, description: "The alerts and your unread count.", schema: alertListResponse },
@@ -1502,6 +1520,42 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
       404: [["NOT_FOUND", "The local mail catcher is not in use."]],
     },
   },
+  // Jobs ----------------------------------------------------------------------------------
+  {
+    method: "get", path: "/api/jobs", operationId: "getJobHealth", tag: "Jobs", auth: true,
+    summary: "Job health",
+    description: "Per queue the waiting, active, delayed, failed and completed counts (the whole installation's, not only your company's); your company's failed jobs with their reason (scans of your company, its e-mails); and per scan its schedule in the company's time zone, its last run for your company with what it found, and its next run. While the job queue (Redis) does not answer within about a second, redis is \"down\", queues and failed are null and the last runs come from the database: the answer still arrives within about 2 s.",
+    success: { status: 200, description: "The job health.", schema: jobHealthResponse },
+    errors: { 403: [ADMIN_ONLY("see the job health")] },
+  },
+  {
+    method: "post", path: "/api/jobs/{name}/run", operationId: "runScanNow", tag: "Jobs", auth: true, idempotent: true,
+    summary: "Run a scan now",
+    description: "Queues a run of the scan for your company at once; the worker delivers what it finds within seconds, as if every recipient's digest hour had come. The run's result shows in GET /api/jobs (lastRunAt moves). Running twice runs twice (the scans raise each alert once); send an Idempotency-Key to make a retried request harmless.",
+    params: z.object({ name: z.string().meta({ description: "The scan: one of the names GET /api/jobs lists (expiry-scan, and reorder-scan and shortage-scan once they are in).", example: "expiry-scan" }) }),
+    success: { status: 202, description: "Queued: the job's id.", schema: runScanResponse },
+    errors: {
+      403: [ADMIN_ONLY("run scans")],
+      404: [["NOT_FOUND", "No scan has this name; the message and details.scans name the scans."]],
+      503: [["QUEUE_UNAVAILABLE", "The job queue (Redis) is not answering: nothing was queued and alerts are delayed. Try again later."]],
+    },
+  },
+  {
+    method: "post", path: "/api/jobs/failed/{queue}/{id}/retry", operationId: "retryFailedJob", tag: "Jobs", auth: true, idempotent: true,
+    summary: "Retry a failed job",
+    description: "Runs a failed job of your company again, its attempts counted afresh. A failed e-mail is put back to pending first, so it is sent.",
+    params: z.object({
+      queue: z.string().meta({ description: "The job's queue (mail, housekeeping, scans...).", example: "scans" }),
+      id: z.string().meta({ description: "The job's id, as GET /api/jobs lists it (URL-encoded)." }),
+    }),
+    success: { status: 200, description: "Queued again.", schema: retryJobResponse },
+    errors: {
+      403: [ADMIN_ONLY("retry jobs")],
+      404: [["NOT_FOUND", "No such queue, or no such job of your company (another company's job is 404 too)."]],
+      409: [["JOB_NOT_FAILED", "The job is not failed (any more): details.state says what it is."]],
+      503: [["QUEUE_UNAVAILABLE", "The job queue (Redis) is not answering. Try again later."]],
+    },
+  },
   // Reference -----------------------------------------------------------------------------
   {
     method: "get", path: "/api/openapi.json", operationId: "getOpenApiDocument", tag: "Reference", auth: true,
@@ -1603,7 +1657,7 @@ const DESCRIPTION = `JSON API of Hank & Lot: the company, its kitchens, users an
 - **Sessions.** \`POST /api/auth/sign-in\` sets the \`${SESSION_COOKIE}\` cookie (HttpOnly, SameSite=Lax); every endpoint not marked public needs it. Sessions last 30 days and are extended while in use: any answer may carry a refreshed Set-Cookie.
 - **Exact quantities.** Quantities and money travel as decimal strings such as \`"12.5"\`: no exponent, at most the field's stated number of decimals. JSON numbers are refused with 422 VALIDATION, because most clients pass them through binary floating point. Answers carry decimal strings too.
 - **Bodies.** \`Content-Type: application/json\`, at most ${DEFAULT_MAX_BODY_BYTES / 1024} KiB. Text fields are trimmed (passwords are kept as typed); e-mail addresses are lower-cased and codes upper-cased before they are stored.
-- **Errors.** Every error is \`{"error": {"code", "message", "details"?}}\` with a fixed status per kind: 400 BAD_REQUEST (not JSON), 401 UNAUTHENTICATED, 403 FORBIDDEN, 404 NOT_FOUND, 409 CONFLICT or a domain code such as INVITATION_EXPIRED, 413 PAYLOAD_TOO_LARGE, 415 UNSUPPORTED_MEDIA_TYPE, 422 VALIDATION with \`details.fields\` (\`{"path": ["message", ...]}\`, every bad field named), 429 RATE_LIMITED with Retry-After, 500 INTERNAL. Branch on \`code\`; \`message\` is for people.
+- **Errors.** Every error is \`{"error": {"code", "message", "details"?}}\` with a fixed status per kind: 400 BAD_REQUEST (not JSON), 401 UNAUTHENTICATED, 403 FORBIDDEN, 404 NOT_FOUND, 409 CONFLICT or a domain code such as INVITATION_EXPIRED, 413 PAYLOAD_TOO_LARGE, 415 UNSUPPORTED_MEDIA_TYPE, 422 VALIDATION with \`details.fields\` (\`{"path": ["message", ...]}\`, every bad field named), 429 RATE_LIMITED with Retry-After, 500 INTERNAL, 503 when a service behind the request (the job queue) is not answering. Branch on \`code\`; \`message\` is for people.
 - **Idempotency keys.** Creating endpoints marked so take an \`Idempotency-Key\` header (at most 200 characters, e.g. a UUID per user action). A retry with the same key and the same body gets the first answer again, same status and body, without doing the work twice; keys are kept at least 24 hours, per user and endpoint. The same key with another body is 422; while the first request is still running, 409.
 - **Same-site writes.** A POST, PATCH or DELETE whose \`Origin\` header names another host is refused with 403. Clients outside a browser send no Origin and are not affected.
 - **Tenancy.** Every record belongs to one company. Another company's record answers 404, exactly as if it did not exist. A record of your own company that your role may not act on, such as a kitchen outside a kitchen lead's own, answers 403.`;

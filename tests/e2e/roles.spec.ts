@@ -8,11 +8,11 @@ import { closeDb } from "../../db/client";
 import { seriousViolations, signIn } from "./support";
 
 const NAV: Record<Role, string[]> = {
-  admin: ["Stock", "Planning", "Buying", "Reports", "Settings"],
-  manager: ["Stock", "Planning", "Buying", "Reports"],
-  buyer: ["Stock", "Buying"],
-  kitchen_lead: ["Stock", "Planning"],
-  accountant: ["Stock", "Buying", "Reports"],
+  admin: ["Overview", "Stock", "Planning", "Buying", "Reports", "Settings"],
+  manager: ["Overview", "Stock", "Planning", "Buying", "Reports"],
+  buyer: ["Overview", "Stock", "Buying"],
+  kitchen_lead: ["Overview", "Stock", "Planning"],
+  accountant: ["Overview", "Stock", "Buying", "Reports"],
 };
 
 let co: TestCompany;
@@ -39,10 +39,14 @@ for (const role of ROLES) {
   test(`${role} signs in and sees the navigation of their job`, async ({ page }) => {
     const user = co.users[role];
     await signIn(page, user.email, co.password);
-    await expect(page).toHaveURL(/\/stock$/);
+    // managers land on the Overview, everyone else on Stock (lib/auth/home.ts)
+    const home = role === "manager" ? "Overview" : "Stock";
+    await expect(page).toHaveURL(role === "manager" ? /\/overview$/ : /\/stock$/);
     const nav = page.getByRole("navigation", { name: "Main" });
     await expect(nav.getByRole("listitem")).toHaveText(NAV[role]);
-    await expect(nav.getByRole("link", { name: "Stock" })).toHaveAttribute("aria-current", "page");
+    await expect(nav.getByRole("link", { name: home })).toHaveAttribute("aria-current", "page");
+    if (home !== "Stock") await nav.getByRole("link", { name: "Stock" }).click();
+    await expect(page).toHaveURL(/\/stock$/);
     // the current kitchen is in the page title; a kitchen lead works only in their own kitchen
     const kitchen = role === "kitchen_lead" ? co.kitchens[0]! : [...co.kitchens].sort((a, b) => a.code.localeCompare(b.code))[0]!;
     await expect(page.getByRole("heading", { level: 1 })).toContainText(kitchen.name);
@@ -61,6 +65,8 @@ for (const role of ROLES) {
 
 test("switching kitchen changes the page title and survives a reload", async ({ page }) => {
   await signIn(page, co.users.manager.email, co.password);
+  await expect(page).toHaveURL(/\/overview$/);
+  await page.goto("/stock");
   const target = co.kitchens[2]!;
   await page.getByRole("combobox", { name: "Kitchen" }).selectOption(target.id);
   await expect(page.getByRole("heading", { level: 1 })).toContainText(target.name);

@@ -22,7 +22,9 @@ export async function signIn(page: Page, email: string, password: string): Promi
 export async function signedInPage(browser: Browser, email: string, password: string, kitchenId?: string): Promise<Page> {
   const page = await (await browser.newContext({ viewport: { width: 1024, height: 768 } })).newPage();
   await signIn(page, email, password);
-  await expect(page).toHaveURL(/\/stock$/);
+  // managers land on the Overview (lib/auth/home.ts); these stories start from the stock page
+  await expect(page).toHaveURL(/\/(stock|overview)$/);
+  if (!new URL(page.url()).pathname.endsWith("/stock")) await page.goto("/stock");
   if (kitchenId) {
     // work in this kitchen, as the kitchen switcher would choose it
     await page.context().addCookies([{ name: "hl_kitchen", value: kitchenId, url: page.url() }]);

@@ -36,6 +36,7 @@ const EXPECTED = `
   reports.read         all    all      -      -             all
   reports.export       all    all      -      -             all
   alerts.read          all    all      all    own           -
+  dashboard.read       all    all      all    own           all
 `;
 
 type Cell = "all" | "own" | "limit" | "-";

@@ -7,6 +7,7 @@ const TABS: (SettingsTab & { needs: Action; onlyWithMailFake?: boolean })[] = [
   { href: "/settings", label: "Company", needs: "company.manage" },
   { href: "/settings/people", label: "People", needs: "users.manage" },
   { href: "/settings/kitchens", label: "Kitchens", needs: "kitchens.manage" },
+  { href: "/settings/jobs", label: "Jobs", needs: "jobs.manage" },
   { href: "/settings/mail", label: "Captured mail", needs: "mail.readCaptured", onlyWithMailFake: true },
   { href: "/settings/api", label: "API reference", needs: "api.readReference" },
 ];

@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import { redirect } from "next/navigation";
 import { CheckCircle2 } from "lucide-react";
+import { homePath } from "@/lib/auth/home";
 import { getCurrentUser } from "@/lib/auth/session";
 import { SignInForm } from "./sign-in-form";
 
@@ -8,7 +9,8 @@ export const metadata: Metadata = { title: "Sign in" };
 export const dynamic = "force-dynamic";
 
 export default async function SignInPage({ searchParams }: { searchParams: Promise<{ next?: string; reset?: string; joined?: string }> }) {
-  if (await getCurrentUser()) redirect("/stock");
+  const user = await getCurrentUser();
+  if (user) redirect(homePath(user.role));
   const { next, reset, joined } = await searchParams;
   const note = reset === "1" ? "Your new password is saved. Sign in with it." : joined === "1" ? "Your account is ready. Sign in to start." : null;
   return (

@@ -50,7 +50,8 @@ export function AlertEmailForm({ prefs }: { prefs: AlertPreferences }) {
       </fieldset>
       <div>
         <label htmlFor="digestHour" className="field-label">Digest hour</label>
-        <select id="digestHour" name="digestHour" defaultValue={v.digestHour} className="field-input max-w-[10rem]" {...describedBy("digestHour", e.digestHour, true)}>
+        {/* keyed: after a save the form resets to the saved hour, which a mounted select would not take */}
+        <select key={v.digestHour} id="digestHour" name="digestHour" defaultValue={v.digestHour} className="field-input max-w-[10rem]" {...describedBy("digestHour", e.digestHour, true)}>
           {Array.from({ length: 24 }, (_, h) => <option key={h} value={h}>{hourLabel(h)}</option>)}
         </select>
         <FieldHint id="digestHour">In your time zone ({prefs.timeZone.replaceAll("_", " ")}). Used when you choose the daily digest.</FieldHint>

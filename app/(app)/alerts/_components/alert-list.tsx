@@ -2,8 +2,9 @@
 
 // The alert list: each alert with what it is about, and buttons to mark it seen or put it aside.
 // Acknowledging and snoozing are the user's own (others still see the alert unread).
+import Link from "next/link";
 import { useRouter } from "next/navigation";
-import { BellOff, Check, Clock, Loader2 } from "lucide-react";
+import { BellOff, Check, CircleCheck, Clock, Loader2 } from "lucide-react";
 import { useState } from "react";
 import { CureCaution } from "@/components/cure/cure-caution";
 import { Badge } from "@/components/ui/badge";
@@ -15,7 +16,20 @@ import { newIdempotencyKey } from "@/lib/queries/stock";
 const when = (iso: string, timeZone: string) =>
   new Intl.DateTimeFormat("en-GB", { timeZone, day: "numeric", month: "short", hour: "2-digit", minute: "2-digit" }).format(new Date(iso));
 
-export function AlertList({ alerts, unreadCount, timeZone }: { alerts: Alert[]; unreadCount: number; timeZone: string }) {
+const KIND_LABEL: Record<Alert["kind"], string> = { expiry: "Date", reorder: "Reorder", shortage: "Short for a batch" };
+
+/** Where to act on an alert, when this person may open it: the buying page for reorder, the batch sheet for a shortage. */
+function actionLink(a: Alert, may: { reorder: boolean; shortage: boolean }): { href: string; label: string } | null {
+  if (a.kind === "reorder" && may.reorder) return { href: "/purchasing/reorder", label: `Open Reorder (${a.kitchen.name})` };
+  if (a.kind === "shortage" && may.shortage) return { href: `/planning/batches/${a.subjectId}`, label: "Open the batch" };
+  return null;
+}
+
+export function AlertList({ alerts, unreadCount, timeZone, links }: {
+  alerts: Alert[]; unreadCount: number; timeZone: string;
+  /** which pages this person may open: Reorder (purchasing.read), the batch sheet (planning.read) */
+  links: { reorder: boolean; shortage: boolean };
+}) {
   const router = useRouter();
   const [busy, setBusy] = useState<string | null>(null);
   const [error, setError] = useState<string | null>(null);
@@ -40,7 +54,7 @@ export function AlertList({ alerts, unreadCount, timeZone }: { alerts: Alert[]; 
   if (alerts.length === 0) {
     return (
       <EmptyState title="Nothing needs a look" icon={<BellOff aria-hidden className="h-8 w-8" />}>
-        <p>Each morning the lots in stock are checked against the warning windows of their category. Anything getting close to its date shows up here.</p>
+        <p>Each morning the lots in stock are checked against the warning windows of their category, the items against their reorder points and the coming week's batches against the stock. Anything that needs a look shows up here.</p>
       </EmptyState>
     );
   }
@@ -51,35 +65,45 @@ export function AlertList({ alerts, unreadCount, timeZone }: { alerts: Alert[]; 
       {error ? <p role="alert" className="text-ember">{error}</p> : null}
       {hasCure ? <CureCaution /> : null}
       <ul className="space-y-2">
-        {alerts.map((a) => (
-          <li key={a.id} className={`panel flex flex-wrap items-start justify-between gap-3 px-4 py-3 ${a.unread ? "" : "opacity-75"}`}>
-            <div className="min-w-0">
-              <p className="font-semibold">{a.title}</p>
-              <p className="text-sm text-brine">{a.detail}</p>
-              <p className="mt-1 flex flex-wrap items-center gap-2 text-sm text-brine">
-                <span>{a.kitchen.name}</span>
-                <span>· raised {when(a.createdAt, timeZone)}</span>
-                {a.acknowledgedAt ? <Badge tone="herb" icon={<Check aria-hidden className="h-3.5 w-3.5" />}>Seen</Badge> : null}
-                {!a.acknowledgedAt && a.snoozedUntil && !a.unread ? (
-                  <Badge icon={<Clock aria-hidden className="h-3.5 w-3.5" />}>Set aside until {when(a.snoozedUntil, timeZone)}</Badge>
+        {alerts.map((a) => {
+          const link = actionLink(a, links);
+          return (
+            <li key={a.id} className={`panel flex flex-wrap items-start justify-between gap-3 px-4 py-3 ${a.unread ? "" : "opacity-75"}`}>
+              <div className="min-w-0">
+                <p className="font-semibold">{a.title}</p>
+                <p className="text-sm text-brine">{a.detail}</p>
+                {link ? (
+                  <p className="mt-1 text-sm">
+                    <Link href={link.href} className="font-semibold text-paprika underline underline-offset-2">{link.label}</Link>
+                  </p>
                 ) : null}
-                {a.unread ? <Badge tone="amber">New</Badge> : null}
-              </p>
-            </div>
-            {a.acknowledgedAt ? null : (
-              <div className="flex gap-2">
-                <button type="button" className="btn-quiet" disabled={busy !== null} onClick={() => void act(a, "snooze")}>
-                  {busy === `${a.id}:snooze` ? <Loader2 aria-hidden className="h-4 w-4 animate-spin" /> : <Clock aria-hidden className="h-4 w-4" />}
-                  Remind me tomorrow
-                </button>
-                <button type="button" className="btn-primary" disabled={busy !== null} onClick={() => void act(a, "ack")}>
-                  {busy === `${a.id}:ack` ? <Loader2 aria-hidden className="h-4 w-4 animate-spin" /> : <Check aria-hidden className="h-4 w-4" />}
-                  Seen
-                </button>
+                <p className="mt-1 flex flex-wrap items-center gap-2 text-sm text-brine">
+                  <Badge>{KIND_LABEL[a.kind]}</Badge>
+                  <span>{a.kitchen.name}</span>
+                  <span>· raised {when(a.createdAt, timeZone)}</span>
+                  {a.clearedAt ? <Badge tone="herb" icon={<CircleCheck aria-hidden className="h-3.5 w-3.5" />}>Cleared {when(a.clearedAt, timeZone)}</Badge> : null}
+                  {a.acknowledgedAt ? <Badge tone="herb" icon={<Check aria-hidden className="h-3.5 w-3.5" />}>Seen</Badge> : null}
+                  {!a.acknowledgedAt && a.snoozedUntil && !a.unread ? (
+                    <Badge icon={<Clock aria-hidden className="h-3.5 w-3.5" />}>Set aside until {when(a.snoozedUntil, timeZone)}</Badge>
+                  ) : null}
+                  {a.unread ? <Badge tone="amber">New</Badge> : null}
+                </p>
               </div>
-            )}
-          </li>
-        ))}
+              {a.acknowledgedAt || a.clearedAt ? null : (
+                <div className="flex gap-2">
+                  <button type="button" className="btn-quiet" disabled={busy !== null} onClick={() => void act(a, "snooze")}>
+                    {busy === `${a.id}:snooze` ? <Loader2 aria-hidden className="h-4 w-4 animate-spin" /> : <Clock aria-hidden className="h-4 w-4" />}
+                    Remind me tomorrow
+                  </button>
+                  <button type="button" className="btn-primary" disabled={busy !== null} onClick={() => void act(a, "ack")}>
+                    {busy === `${a.id}:ack` ? <Loader2 aria-hidden className="h-4 w-4 animate-spin" /> : <Check aria-hidden className="h-4 w-4" />}
+                    Seen
+                  </button>
+                </div>
+              )}
+            </li>
+          );
+        })}
       </ul>
     </section>
   );

@@ -44,7 +44,7 @@ export default async function CapturedMailPage() {
       />
       {messages.length === 0 ? (
         <EmptyState title="No mail yet" icon={<Inbox aria-hidden className="h-8 w-8" />}>
-          <p>Invitations and password resets for your company show up here once sent.</p>
+          <p>Invitations, password resets, purchase orders and alert e-mail for your company show up here once sent.</p>
         </EmptyState>
       ) : (
         <ul className="space-y-3">

@@ -39,5 +39,6 @@ export async function acceptInvitationAction(_prev: AcceptState, form: FormData)
     if (!(e instanceof AppError) || (e.status !== 404 && e.status !== 409)) throw e;
     return { linkProblem: e.status === 404 ? "We can't find this invitation any more. Ask your admin for a new one." : e.message };
   }
-  redirect("/stock");
+  // "/" sends each role to its own first page (lib/auth/home.ts)
+  redirect("/");
 }
