@@ -96,7 +96,7 @@ async function syncSchedules() {
       await digestsQueue.upsertJobScheduler(DIGEST_TICK_JOB, { every: DIGEST_TICK_EVERY_MS }, { name: DIGEST_TICK_JOB, opts: KEEP_FEW });
     }
     if (!(await housekeepingQueue.getJobScheduler("daily-housekeeping"))) {
-      await housekeepingQueue.upsertJobScheduler("daily-housekeeping", { every: 24 * 3600 * 1000 }, { name: "housekeeping" });
+      await housekeepingQueue.upsertJobScheduler("daily-housekeeping", { every: 24 * 3600 * 1000 }, { name: "housekeeping", opts: KEEP_FEW });
     }
     await syncScanSchedulers(db(), scansQueue);
     const n = await enqueueOverdueScans(db(), scansQueue);
