@@ -19,6 +19,7 @@ import { alertKindsFor, digestDue, type AlertEmailMode } from "../../lib/alerts/
 import { kitchensWhere } from "../../lib/auth/permissions";
 import { alertDigestEmail, alertPath, type DigestAlert } from "../../lib/mail/alert-digest";
 import { addToOutbox } from "../../lib/mail/outbox";
+import { SCAN_JOB_OPTIONS } from "../queues";
 
 export const DELIVER_ALERTS_JOB = "deliver-alerts";
 export const DIGEST_TICK_JOB = "digest-tick";
@@ -141,9 +142,5 @@ export async function enqueueDeliveries(knex: Knex, queue: Queue, now: Date = ne
   return ids.length;
 }
 
-export const DELIVER_JOB_OPTIONS = {
-  attempts: 5,
-  backoff: { type: "exponential", delay: 2000 },
-  removeOnComplete: { age: 24 * 3600, count: 1000 },
-  removeOnFail: { age: 7 * 24 * 3600, count: 5000 },
-} as const;
+/** Deliveries are idempotent (the send record), so they retry as the scans do. */
+export const DELIVER_JOB_OPTIONS = SCAN_JOB_OPTIONS;

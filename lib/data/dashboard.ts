@@ -27,7 +27,7 @@ import { can, canSomewhere } from "../auth/permissions";
 import { CURE_CAUTION } from "../cure/caution";
 import { forbidden } from "../http/errors";
 import { currencyDecimals } from "../purchasing/order-money";
-import { gatherReorder } from "../reorder/gather";
+import { gatherReorder, type ReorderItemRef } from "../reorder/gather";
 import type { OfferFigures } from "../reorder/suggest";
 import { Dec, dec, plain, ZERO } from "../units/decimal";
 import { listShortBatches } from "./batches";
@@ -38,15 +38,8 @@ export interface DashboardKitchen {
   name: string;
 }
 
-export interface DashboardItem {
-  id: string;
-  sku: string;
-  name: string;
-  category: ItemCategory;
-  stockUnit: StockUnit;
-  /** natural casings: the put-up one pc is (a hank of 91.44 m); null otherwise */
-  putUp: { name: string; metres: string } | null;
-}
+/** An item as the panels show it: the same reference Reorder uses. */
+export type DashboardItem = ReorderItemRef;
 
 export interface ExpiringCureLot {
   kitchen: DashboardKitchen;
