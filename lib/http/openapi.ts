@@ -19,6 +19,7 @@ import type { meBody } from "../../app/api/me/me-body";
 import { SESSION_COOKIE } from "../auth/session";
 import type { Alert } from "../data/alerts";
 import type { Dashboard } from "../data/dashboard";
+import type { UsageReport, ValuationReport } from "../data/reports";
 import type { CapturedMail } from "../data/captured-mail";
 import type { CasingCalculation } from "../data/casing-calculation";
 import type { Batch, ReserveAllResult } from "../data/batches";
@@ -40,6 +41,7 @@ import { DOCUMENT_FILE_TYPES, FILE_TYPES } from "../uploads/file-types";
 import { alertListQuery, alertListResponse, alertResponse, alertSnoozeInput } from "../validation/alerts";
 import { alertPreferencesInput, alertPreferencesResponse } from "../validation/preferences";
 import { dashboardResponse } from "../validation/dashboard";
+import { usageQueryFields, usageResponse, valuationQuery, valuationResponse } from "../validation/reports";
 import { invitationAcceptInput, passwordResetConfirmInput, passwordResetRequestInput, signInInput } from "../validation/auth";
 import { companyUpdateInput, invitationCreateInput, kitchenCreateInput, kitchenUpdateInput, userUpdateInput } from "../validation/company";
 import { casingCalculationInput, casingCalculationResponse } from "../validation/casing";
@@ -119,6 +121,8 @@ export type ResponseShapesMatch = [
   Assert<Same<z.infer<typeof alertResponse>, Alert>>,
   Assert<Same<z.infer<typeof jobHealthResponse>, JobHealth>>,
   Assert<Same<z.infer<typeof dashboardResponse>, Dashboard>>,
+  Assert<Same<z.infer<typeof usageResponse>, UsageReport>>,
+  Assert<Same<z.infer<typeof valuationResponse>, ValuationReport>>,
 ];
 
 // ---------------------------------------------------------------------------------------------
@@ -451,6 +455,7 @@ export const TAGS = [
   { name: "Mail catcher", description: "Local development only: e-mail caught instead of sent." },
   { name: "Dashboard", description: "The Overview: cure expiring soon, items below their reorder point, next week's shortages, stock value by kitchen and the usage trend, over the kitchens you may read. Money at receipt cost." },
   { name: "Alerts", description: "What the daily scans found (lots near their date; later reorder and shortage), per kitchen, with each user's acknowledgements and snoozes." },
+  { name: "Reports", description: "The accountant's reports: usage and cost by month, stock valuation at a date (by the company's cost formula, FIFO or moving average, per kitchen), price variance; JSON or CSV." },
   { name: "Jobs", description: "The background jobs behind alerts and e-mail (admins): queue counts, your company's failed jobs, each scan's last and next run, running a scan now." },
   { name: "Reference", description: "This document." },
 ] as const;
@@ -972,6 +977,43 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
     description: "Every panel of the Overview page at once, over the open kitchens you may read (dashboard.read: admins, managers, buyers and accountants every kitchen, kitchen leads their own). cureExpiring: cure lots with stock dated up to today + the company's largest cure warning window, past-date ones too, fewest days left first. belowReorder: what Buying > Reorder suggests (the same rule and figures). shortages: the short lines of planned and reserved batches from today to today + 6, as the planner works them out. stockValue: on hand x each lot's unit cost per kitchen. usageTrend: use and waste (net of reversals) per month and category over the last six months, this one included. Money is at receipt cost (each lot's unit cost when received: there is no cost formula yet), rounded half-even to the currency's decimals once per value shown; totals add the values shown. Dates and months are the company's.",
     success: { status: 200, description: "The panels.", schema: dashboardResponse },
     errors: { 403: [["FORBIDDEN", "A kitchen lead with no kitchen assigned."]] },
+  },
+  // Reports -------------------------------------------------------------------------------
+  {
+    method: "get", path: "/api/reports/usage", operationId: "getUsageReport", tag: "Reports", auth: true,
+    summary: "Usage and cost by month",
+    description: "Stock used (in production or by hand) and wasted, net of reversals, per month (the company's time zone; from and to inclusive) and per item, category or kitchen, with its cost by the company's cost formula (costFormula: fifo, cost layers in receipt order, or average, the moving weighted average; kept per kitchen; a transfer carries its cost). Count differences and adjustments are shown apart (gains at the item's latest receipt cost in the kitchen). Rows by item carry quantities in the stock unit; rows by category or kitchen carry cost only (units differ). Each row's money is rounded half-even to the currency's decimals; totals add the rows. ?format=csv: the same rows as RFC 4180 CSV (UTF-8; bom=true starts it with a byte order mark for spreadsheet programs; text a spreadsheet would run is neutralised, numbers stay numbers). Accountants, managers and admins (reports.read).",
+    query: usageQueryFields.extend({
+      from: usageQueryFields.shape.from.meta({ description: "First month, YYYY-MM.", example: "2026-10" }),
+      to: usageQueryFields.shape.to.meta({ description: "Last month, YYYY-MM, inclusive; at most 36 months after from.", example: "2026-11" }),
+      groupBy: usageQueryFields.shape.groupBy.meta({ description: "item (default), category or kitchen." }),
+      kitchen: usageQueryFields.shape.kitchen.meta({ description: "Only this kitchen (code or id)." }),
+      format: usageQueryFields.shape.format.meta({ description: "json (default) or csv." }),
+      bom: usageQueryFields.shape.bom.meta({ description: "csv: true starts the file with a UTF-8 byte order mark." }),
+    }),
+    success: { status: 200, description: "The report (text/csv with format=csv).", schema: usageResponse },
+    errors: {
+      403: [["FORBIDDEN", "Your role does not read reports."]],
+      404: [["NOT_FOUND", "No such kitchen in your company."]],
+      422: [["VALIDATION", "A month not as YYYY-MM, to before from, more than 36 months, or another bad parameter (details.fields)."]],
+    },
+  },
+  {
+    method: "get", path: "/api/reports/valuation", operationId: "getValuationReport", tag: "Reports", auth: true,
+    summary: "Stock valuation at a date",
+    description: "What each kitchen held of each item at the end of asOf (the company's time zone) and its value by the company's cost formula (FIFO layers or moving average, per kitchen). Rows with nothing on hand and no value are left out. Values rounded half-even to the currency's decimals per row; totals (overall, by category, by kitchen code) add the rows. ?format=csv as for the usage report. Accountants, managers and admins (reports.read).",
+    query: valuationQuery.extend({
+      asOf: valuationQuery.shape.asOf.meta({ description: "The day, YYYY-MM-DD: stock at its end.", example: "2026-11-30" }),
+      kitchen: valuationQuery.shape.kitchen.meta({ description: "Only this kitchen (code or id)." }),
+      format: valuationQuery.shape.format.meta({ description: "json (default) or csv." }),
+      bom: valuationQuery.shape.bom.meta({ description: "csv: true starts the file with a UTF-8 byte order mark." }),
+    }),
+    success: { status: 200, description: "The valuation (text/csv with format=csv).", schema: valuationResponse },
+    errors: {
+      403: [["FORBIDDEN", "Your role does not read reports."]],
+      404: [["NOT_FOUND", "No such kitchen in your company."]],
+      422: [["VALIDATION", "asOf not a real day as YYYY-MM-DD, or another bad parameter (details.fields)."]],
+    },
   },
   // Alerts --------------------------------------------------------------------------------
   {

@@ -1,0 +1,232 @@
+// The accountant's reports: usage by month and stock valuation at a date, by the company's cost
+// formula (lib/costing/engine.ts over every movement up to the report's end, lib/costing/load.ts).
+// Months and days are the company's (its time zone); `to` is inclusive. Money is exact until a row
+// is shown: each row's cost is rounded half-even to the currency's decimals, and totals are sums of
+// the rows as shown, so a spreadsheet adding the rows gets the totals. Quantities of different
+// units are never added: rows grouped by category or kitchen carry cost only.
+// Everyone with reports.read (accountants, managers, admins) sees every kitchen of the company.
+import "server-only";
+import { TZDate } from "@date-fns/tz";
+import { db } from "../../db/client";
+import type { ItemCategory, StockUnit } from "../../db/types";
+import { dateInZone } from "../alerts/expiry";
+import { assertCan } from "../auth/assert";
+import type { CurrentUser } from "../auth/current-user";
+import type { CostFormula } from "../costing/engine";
+import { costCompany } from "../costing/load";
+import { toCsv, type CsvCell } from "../csv";
+import { notFound } from "../http/errors";
+import { currencyExponent } from "../units/money";
+import { Dec, dec, plain, ZERO } from "../units/decimal";
+import { isUuid } from "../validation/items";
+import type { UsageGroup, UsageQuery, ValuationQuery } from "../validation/reports";
+
+interface KitchenRef { id: string; code: string; name: string }
+interface ItemRef { id: string; sku: string; name: string; category: ItemCategory }
+
+export interface UsageRow {
+  month: string;
+  item?: ItemRef;
+  unit?: StockUnit;
+  category?: ItemCategory;
+  kitchen?: KitchenRef;
+  usedQuantity?: string;
+  wastedQuantity?: string;
+  quantity?: string;
+  usedCost: string;
+  wastedCost: string;
+  cost: string;
+  countDifferenceQuantity?: string;
+  countDifferenceCost: string;
+}
+
+export interface UsageReport {
+  from: string;
+  to: string;
+  groupBy: UsageGroup;
+  kitchen: KitchenRef | null;
+  currency: string;
+  costFormula: CostFormula;
+  rows: UsageRow[];
+  totals: { usedCost: string; wastedCost: string; cost: string; countDifferenceCost: string };
+}
+
+export interface ValuationRow {
+  kitchen: KitchenRef;
+  item: ItemRef;
+  quantity: string;
+  unit: StockUnit;
+  value: string;
+}
+
+export interface ValuationReport {
+  asOf: string;
+  kitchen: KitchenRef | null;
+  currency: string;
+  costFormula: CostFormula;
+  rows: ValuationRow[];
+  totals: { value: string; byCategory: Record<string, string>; byKitchen: Record<string, string> };
+}
+
+interface Company { currency: string; time_zone: string; cost_formula: CostFormula }
+
+/** The instant a local calendar day starts in a time zone. */
+export function dayStart(isoDay: string, timeZone: string): Date {
+  const [y, m, d] = isoDay.split("-").map(Number) as [number, number, number];
+  return new Date(new TZDate(y, m - 1, d, 0, 0, 0, timeZone).getTime());
+}
+
+/** YYYY-MM plus n months. */
+export function addMonths(month: string, n: number): string {
+  const total = Number(month.slice(0, 4)) * 12 + Number(month.slice(5)) - 1 + n;
+  return `${String(Math.floor(total / 12)).padStart(4, "0")}-${String((total % 12) + 1).padStart(2, "0")}`;
+}
+
+async function loadContext(user: CurrentUser, kitchenRef: string | undefined) {
+  assertCan(user, "reports.read");
+  const company: Company = await db()("companies").where({ id: user.companyId }).first("currency", "time_zone", "cost_formula");
+  const kitchens: KitchenRef[] = await db()("kitchens").where({ company_id: user.companyId }).select("id", "code", "name").orderBy("code");
+  let kitchen: KitchenRef | null = null;
+  if (kitchenRef) {
+    kitchen = kitchens.find((k) => (isUuid(kitchenRef) ? k.id === kitchenRef : k.code.toUpperCase() === kitchenRef.toUpperCase())) ?? null;
+    if (!kitchen) throw notFound("Kitchen");
+  }
+  const items: (ItemRef & { stock_unit: StockUnit })[] = await db()("items").where({ company_id: user.companyId }).select("id", "sku", "name", "category", "stock_unit");
+  return { company, kitchens: new Map(kitchens.map((k) => [k.id, k])), kitchen, items: new Map(items.map((i) => [i.id, i])) };
+}
+
+const byCategoryThenSku = (a: ItemRef, b: ItemRef) => (a.category < b.category ? -1 : a.category > b.category ? 1 : a.sku < b.sku ? -1 : a.sku > b.sku ? 1 : 0);
+
+export async function usageReport(user: CurrentUser, q: UsageQuery): Promise<UsageReport> {
+  const { company, kitchens, kitchen, items } = await loadContext(user, q.kitchen);
+  const tz = company.time_zone;
+  const start = dayStart(`${q.from}-01`, tz);
+  const end = dayStart(`${addMonths(q.to, 1)}-01`, tz);
+  const costs = await costCompany(db(), user.companyId, { before: end, formula: company.cost_formula });
+
+  interface Acc { month: string; key: string; used: Dec; wasted: Dec; usedCost: Dec; wastedCost: Dec; countQty: Dec; countCost: Dec }
+  const acc = new Map<string, Acc>();
+  for (const [itemId, result] of costs) {
+    const item = items.get(itemId);
+    if (!item) continue;
+    for (const m of result.movements) {
+      if (m.occurredAt < start) continue;
+      if (kitchen && m.kitchenId !== kitchen.id) continue;
+      if (m.kind !== "use" && m.kind !== "waste" && m.kind !== "count" && m.kind !== "adjustment") continue;
+      const month = dateInZone(m.occurredAt, tz).slice(0, 7);
+      const key = q.groupBy === "item" ? itemId : q.groupBy === "category" ? item.category : m.kitchenId;
+      const id = `${month}|${key}`;
+      let a = acc.get(id);
+      if (!a) acc.set(id, (a = { month, key, used: ZERO, wasted: ZERO, usedCost: ZERO, wastedCost: ZERO, countQty: ZERO, countCost: ZERO }));
+      if (m.kind === "use") {
+        a.used = a.used.sub(m.delta);
+        a.usedCost = a.usedCost.sub(m.value);
+      } else if (m.kind === "waste") {
+        a.wasted = a.wasted.sub(m.delta);
+        a.wastedCost = a.wastedCost.sub(m.value);
+      } else {
+        a.countQty = a.countQty.add(m.delta);
+        a.countCost = a.countCost.add(m.value);
+      }
+    }
+  }
+
+  const places = currencyExponent(company.currency);
+  const money = (v: Dec) => v.toDecimalPlaces(places, Dec.ROUND_HALF_EVEN);
+  const rows: UsageRow[] = [];
+  for (const a of acc.values()) {
+    const usedCost = money(a.usedCost);
+    const wastedCost = money(a.wastedCost);
+    const countCost = money(a.countCost);
+    if (a.used.isZero() && a.wasted.isZero() && a.countQty.isZero() && usedCost.isZero() && wastedCost.isZero() && countCost.isZero()) continue;
+    const row: UsageRow = {
+      month: a.month,
+      usedCost: usedCost.toFixed(places),
+      wastedCost: wastedCost.toFixed(places),
+      cost: usedCost.add(wastedCost).toFixed(places),
+      countDifferenceCost: countCost.toFixed(places),
+    };
+    if (q.groupBy === "item") {
+      const item = items.get(a.key)!;
+      Object.assign(row, {
+        item: { id: item.id, sku: item.sku, name: item.name, category: item.category }, unit: item.stock_unit, category: item.category,
+        usedQuantity: plain(a.used), wastedQuantity: plain(a.wasted), quantity: plain(a.used.add(a.wasted)), countDifferenceQuantity: plain(a.countQty),
+      });
+    } else if (q.groupBy === "category") {
+      row.category = a.key as ItemCategory;
+    } else {
+      row.kitchen = kitchens.get(a.key)!;
+    }
+    rows.push(row);
+  }
+  rows.sort((x, y) => {
+    if (x.month !== y.month) return x.month < y.month ? -1 : 1;
+    if (x.item && y.item) return byCategoryThenSku(x.item, y.item);
+    if (x.kitchen && y.kitchen) return x.kitchen.code < y.kitchen.code ? -1 : 1;
+    return (x.category ?? "") < (y.category ?? "") ? -1 : 1;
+  });
+  const sum = (f: (r: UsageRow) => string) => rows.reduce((s, r) => s.add(dec(f(r))), ZERO).toFixed(places);
+  return {
+    from: q.from, to: q.to, groupBy: q.groupBy, kitchen, currency: company.currency, costFormula: company.cost_formula, rows,
+    totals: { usedCost: sum((r) => r.usedCost), wastedCost: sum((r) => r.wastedCost), cost: sum((r) => r.cost), countDifferenceCost: sum((r) => r.countDifferenceCost) },
+  };
+}
+
+export async function valuationReport(user: CurrentUser, q: ValuationQuery): Promise<ValuationReport> {
+  const { company, kitchens, kitchen, items } = await loadContext(user, q.kitchen);
+  const next = new Date(Date.UTC(Number(q.asOf.slice(0, 4)), Number(q.asOf.slice(5, 7)) - 1, Number(q.asOf.slice(8)) + 1)).toISOString().slice(0, 10);
+  const costs = await costCompany(db(), user.companyId, { before: dayStart(next, company.time_zone), formula: company.cost_formula });
+  const places = currencyExponent(company.currency);
+  const rows: ValuationRow[] = [];
+  for (const [itemId, result] of costs) {
+    const item = items.get(itemId);
+    if (!item) continue;
+    for (const [kitchenId, p] of result.positions) {
+      if (kitchen && kitchenId !== kitchen.id) continue;
+      const value = p.value.toDecimalPlaces(places, Dec.ROUND_HALF_EVEN);
+      if (p.quantity.isZero() && value.isZero()) continue;
+      rows.push({
+        kitchen: kitchens.get(kitchenId)!, item: { id: item.id, sku: item.sku, name: item.name, category: item.category },
+        quantity: plain(p.quantity), unit: item.stock_unit, value: value.toFixed(places),
+      });
+    }
+  }
+  rows.sort((a, b) => (a.kitchen.code !== b.kitchen.code ? (a.kitchen.code < b.kitchen.code ? -1 : 1) : byCategoryThenSku(a.item, b.item)));
+  const byCategory: Record<string, Dec> = {};
+  const byKitchen: Record<string, Dec> = {};
+  let total = ZERO;
+  for (const r of rows) {
+    const v = dec(r.value);
+    total = total.add(v);
+    byCategory[r.item.category] = (byCategory[r.item.category] ?? ZERO).add(v);
+    byKitchen[r.kitchen.code] = (byKitchen[r.kitchen.code] ?? ZERO).add(v);
+  }
+  const fixed = (o: Record<string, Dec>) => Object.fromEntries(Object.entries(o).map(([k, v]) => [k, v.toFixed(places)]));
+  return {
+    asOf: q.asOf, kitchen, currency: company.currency, costFormula: company.cost_formula, rows,
+    totals: { value: total.toFixed(places), byCategory: fixed(byCategory), byKitchen: fixed(byKitchen) },
+  };
+}
+
+// CSV: one line per row, the same figures as the JSON (numbers as plain decimals, never quoted).
+const BOM = "\uFEFF";
+
+export function usageCsv(r: UsageReport, bom = false): string {
+  const kitchenCols = r.groupBy === "kitchen" ? ["kitchen_code", "kitchen_name"] : [];
+  const itemCols = r.groupBy === "item" ? ["sku", "item", "category", "unit", "used_quantity", "wasted_quantity", "quantity"] : r.groupBy === "category" ? ["category"] : [];
+  const costCols = ["used_cost", "wasted_cost", "cost", ...(r.groupBy === "item" ? ["count_difference_quantity"] : []), "count_difference_cost", "currency"];
+  const rows: CsvCell[][] = r.rows.map((x) => [
+    x.month,
+    ...(r.groupBy === "kitchen" ? [x.kitchen!.code, x.kitchen!.name] : []),
+    ...(r.groupBy === "item" ? [x.item!.sku, x.item!.name, x.category, x.unit, x.usedQuantity, x.wastedQuantity, x.quantity] : r.groupBy === "category" ? [x.category] : []),
+    x.usedCost, x.wastedCost, x.cost, ...(r.groupBy === "item" ? [x.countDifferenceQuantity] : []), x.countDifferenceCost, r.currency,
+  ]);
+  return (bom ? BOM : "") + toCsv(["month", ...kitchenCols, ...itemCols, ...costCols], rows);
+}
+
+export function valuationCsv(r: ValuationReport, bom = false): string {
+  return (bom ? BOM : "") + toCsv(
+    ["as_of", "kitchen_code", "kitchen_name", "sku", "item", "category", "quantity", "unit", "value", "currency"],
+    r.rows.map((x) => [r.asOf, x.kitchen.code, x.kitchen.name, x.item.sku, x.item.name, x.item.category, x.quantity, x.unit, x.value, r.currency]),
+  );
+}
