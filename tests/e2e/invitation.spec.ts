@@ -69,7 +69,7 @@ test("an invited buyer joins through the e-mailed link; the other company never 
   await joiner.getByLabel("Password again").fill("a-long-new-password");
   await joiner.getByRole("button", { name: /join|create|accept|set/i }).click();
   await expect(joiner).toHaveURL(/\/stock$/);
-  await expect(joiner.getByRole("navigation", { name: "Main" }).getByRole("listitem")).toHaveText(["Stock", "Buying"]);
+  await expect(joiner.getByRole("navigation", { name: "Main" }).getByRole("listitem")).toHaveText(["Overview", "Stock", "Buying"]);
 
   // the link is single use
   const again = await (await browser.newContext()).newPage();
