@@ -23,6 +23,7 @@ export interface CompanyRow {
   /** the stand-in scanners type for GS on case labels (1-8 characters); null: none */
   scan_separator: string | null;
   expiry_windows: unknown;
+  cost_formula: "fifo" | "average";
   created_at: Date;
 }
 

@@ -16,6 +16,8 @@
 //   waiting for a manager), when it has suppliers and no purchase order yet, under a lock of their own.
 // - Then current prices for its supplier items (db/seeds/demo-prices.ts), when it has supplier items
 //   and no price at all, under a lock of their own (not part of DemoLoad: logged only).
+// - Then the accountant's account mapping (db/seeds/demo-accounts.ts), when it has none at all (so
+//   a mapping emptied on purpose comes back at the next start), under a lock of its own (logged only).
 // The stock posts through lib/data, which needs the react-server condition:
 //   node --conditions=react-server --import tsx db/seeds/load-demo.ts   load what is missing
 //   node --import tsx db/seeds/load-demo.ts --print-sign-ins            print the demo sign-ins and exit
@@ -132,6 +134,16 @@ export async function loadDemo(knex: Knex): Promise<DemoLoad> {
     return loadDemoPrices(trx, company.id, today);
   });
   if (prices) console.log(`[hank&lot] demo prices for ${DEMO_COMPANIES[0]!.name}: ${prices} supplier items priced`);
+  // the accountant's account mapping for the movement journal, when it has none
+  const { loadDemoAccounts } = await import("./demo-accounts");
+  const accounts = await knex.transaction(async (trx) => {
+    await trx.raw("select pg_advisory_xact_lock(hashtext('hank-and-lot: demo accounts'))");
+    const company = await findDemoCompany(trx);
+    if (!company) return 0;
+    if (await trx("account_mappings").where({ company_id: company.id }).first("key")) return 0;
+    return loadDemoAccounts(trx, company.id);
+  });
+  if (accounts) console.log(`[hank&lot] demo account mapping for ${DEMO_COMPANIES[0]!.name}: ${accounts} accounts`);
   return { companies, stock, recipes, suppliers, orders };
 }
 

@@ -34,6 +34,7 @@ export type Action =
   // reports
   | "reports.read"
   | "reports.export"
+  | "accounts.manage" // the account mapping of the movement journal
   // alerts from the scans in jobs/ (expiry now; reorder and shortage later)
   | "alerts.read"
   // the Overview page and GET /api/dashboard (kitchen leads: their own kitchens only)
@@ -75,6 +76,7 @@ export const MATRIX: Record<Action, Record<Role, Reach>> = {
   "orders.approve":    { admin: ALL, manager: ALL, buyer: ALL, kitchen_lead: "none", accountant: "none" },
   "reports.read":      { admin: ALL, manager: ALL, buyer: "none", kitchen_lead: "none", accountant: ALL },
   "reports.export":    { admin: ALL, manager: ALL, buyer: "none", kitchen_lead: "none", accountant: ALL },
+  "accounts.manage":   { admin: ALL, manager: "none", buyer: "none", kitchen_lead: "none", accountant: ALL },
   // checked per alert against its kitchen
   "alerts.read":       { admin: ALL, manager: ALL, buyer: ALL, kitchen_lead: OWN, accountant: "none" },
   // checked per kitchen: each panel counts only the kitchens the user may read

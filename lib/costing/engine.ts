@@ -12,7 +12,10 @@
 // - a transfer in: exactly what the transfer out cost in the sending kitchen (its layers, for FIFO);
 // - a count gain or positive adjustment: the item's latest receipt cost in that kitchen (else in
 //   any kitchen, else the lot's cost): basis "gain", reported apart from usage;
-// - a reversal of an issue: back at what the issue cost (its layers, for FIFO);
+// - a reversal of an issue: back at what the issue cost, into the place it left (its layers at the
+//   front, for FIFO), so an issue and its reversal leave later costs as they were;
+// - a reversed transfer: the destination gives back by formula (its arriving layers first) and the
+//   sender takes back exactly that, so the value across kitchens is unchanged;
 // - a reversal of an increase: taken from that increase's own layer first (FIFO), else by formula.
 // Order: occurred_at, then recorded_at; within one posting, what leaves before what arrives (a
 // transfer's two legs). A backdated issue that finds too little stock in the formula's layers (the
@@ -117,10 +120,18 @@ export function costMovements(input: readonly CostInput[], formula: CostFormula)
   const inTransit = new Map<string, Slices>();
   const out: CostedMovement[] = [];
 
-  const addIn = (s: KitchenState, m: CostInput, slices: Slices) => {
+  /** Adds stock; FIFO layers go last, or first (in their order) for stock given back by a reversal, where it came from. */
+  const addIn = (s: KitchenState, m: CostInput, slices: Slices, atFront = false) => {
     const qty = dec(m.delta);
     const value = sumSlices(slices);
-    if (formula === "fifo") for (const x of slices) if (!x.quantity.isZero()) s.layers.push({ quantity: x.quantity, unitCost: x.unitCost, sourceId: m.id });
+    if (formula === "fifo") {
+      const layers = slices.filter((x) => !x.quantity.isZero()).map((x) => ({ quantity: x.quantity, unitCost: x.unitCost, sourceId: m.id }));
+      if (atFront) {
+        // after a leading shortfall layer, if any: that debt is still owed first
+        const at = s.layers[0]?.sourceId === "shortfall" ? 1 : 0;
+        s.layers.splice(at, 0, ...layers);
+      } else s.layers.push(...layers);
+    }
     s.quantity = s.quantity.add(qty);
     s.value = s.value.add(value);
     return value;
@@ -171,16 +182,19 @@ export function costMovements(input: readonly CostInput[], formula: CostFormula)
       basis = "formula";
     } else if (delta.gt(0)) {
       const reversed = m.reversesId ? taken.get(m.reversesId) : undefined;
-      if (reversed) {
-        // an issue given back: at what it cost, scaled to the quantity given back
+      const transit = m.kind === "transfer" ? inTransit.get(`${m.postingId}:${m.lotId}`) : undefined;
+      if (transit) {
+        // a transfer's arriving leg: what the leaving leg cost (for a reversed transfer, what the
+        // destination gave back), so the value across kitchens is unchanged
+        value = addIn(s, m, transit, m.reversesId !== null);
+        inTransit.delete(`${m.postingId}:${m.lotId}`);
+        basis = m.reversesId ? "reversal" : "transfer";
+      } else if (reversed) {
+        // an issue given back: at what it cost, scaled to the quantity given back, into the place it left
         const tookQty = reversed.reduce((q, x) => q.add(x.quantity), ZERO);
         const f = delta.div(tookQty);
-        value = addIn(s, m, reversed.map((x) => ({ quantity: x.quantity.mul(f), unitCost: x.unitCost, value: x.value?.mul(f) })));
+        value = addIn(s, m, reversed.map((x) => ({ quantity: x.quantity.mul(f), unitCost: x.unitCost, value: x.value?.mul(f) })), true);
         basis = "reversal";
-      } else if (m.kind === "transfer" && inTransit.has(`${m.postingId}:${m.lotId}`)) {
-        value = addIn(s, m, inTransit.get(`${m.postingId}:${m.lotId}`)!);
-        inTransit.delete(`${m.postingId}:${m.lotId}`);
-        basis = "transfer";
       } else if (m.kind === "receipt") {
         value = addIn(s, m, [{ quantity: delta, unitCost: lotCost }]);
         s.lastReceiptCost = lotCost;
@@ -207,7 +221,7 @@ export function costMovements(input: readonly CostInput[], formula: CostFormula)
       taken.set(m.id, slices);
       value = sumSlices(slices).neg();
       basis = reversing ? "reversal" : "formula";
-      if (m.kind === "transfer" && !m.reversesId) inTransit.set(`${m.postingId}:${m.lotId}`, slices);
+      if (m.kind === "transfer") inTransit.set(`${m.postingId}:${m.lotId}`, slices);
     }
     const c: CostedMovement = { id: m.id, kind: m.kind, kitchenId: m.kitchenId, occurredAt: m.occurredAt, delta, value, basis };
     costed.set(m.id, c);

@@ -7,7 +7,7 @@ import type { CurrentUser } from "../auth/current-user";
 import type { RegulatoryTable } from "../cure/limits";
 import { currencyDecimals, moneyText } from "../purchasing/order-money";
 import { dec, plain } from "../units";
-import { validation } from "../http/errors";
+import { AppError, validation } from "../http/errors";
 import { normaliseWindows } from "../alerts/expiry";
 import type { companyCureSettingsInput, companyUpdateInput, WeekStart } from "../validation/company";
 
@@ -24,6 +24,8 @@ export interface Company {
   receiving: { priceTolerancePercent: string; shortDatedDays: { cure: number; casing: number; spice: number; ingredient: number } };
   /** what the company's scanners type instead of GS on case labels; null: none */
   scanSeparator: string | null;
+  /** the cost formula (IAS 2 para. 25) of the reports: FIFO layers or the moving weighted average, per kitchen (lib/costing/engine.ts) */
+  costFormula: "fifo" | "average";
   /** the expiry scan's warnings: days before a lot's date, per category, largest first (lib/alerts/expiry.ts) */
   expiryWindows: { cure: number[]; casing: number[]; spice: number[]; ingredient: number[] };
 }
@@ -35,6 +37,7 @@ const toCompany = (c: CompanyRow): Company => ({
     shortDatedDays: { cure: c.short_dated_days_cure, casing: c.short_dated_days_casing, spice: c.short_dated_days_spice, ingredient: c.short_dated_days_ingredient },
   },
   scanSeparator: c.scan_separator,
+  costFormula: c.cost_formula,
   expiryWindows: (() => {
     const w = normaliseWindows(c.expiry_windows);
     return { cure: w.cure ?? [], casing: w.casing ?? [], spice: w.spice ?? [], ingredient: w.ingredient ?? [] };
@@ -55,9 +58,18 @@ export async function updateCompany(actor: CurrentUser, input: z.infer<typeof co
     const e = currencyDecimals(input.currency);
     throw validation({ approvalThreshold: [e === 0 ? `${input.currency} has no decimals: enter a whole amount.` : `${input.currency} has ${e} decimals: enter at most ${e}.`] });
   }
+  if (input.costFormula !== undefined) {
+    // the reports cost every movement from the first by today's formula, so a change would rewrite
+    // closed months: it is allowed only while none is closed (IAS 8 treats a change as a change of policy)
+    const current = await db()("companies").where({ id: actor.companyId }).first<{ cost_formula: string }>("cost_formula");
+    if (current.cost_formula !== input.costFormula && (await db()("accounting_periods").where({ company_id: actor.companyId }).first())) {
+      throw new AppError(409, "COST_FORMULA_LOCKED", "The cost formula cannot change once a month is closed: the closed months were costed with the current one. Reopen every closed month first.", { field: "costFormula" });
+    }
+  }
   const [row] = await db()("companies")
     .where({ id: actor.companyId })
     .update({
+      ...(input.costFormula !== undefined ? { cost_formula: input.costFormula } : {}),
       name: input.name, time_zone: input.timeZone, currency: input.currency, ...(input.weekStart ? { week_start: input.weekStart } : {}),
       ...(input.approvalThreshold !== undefined ? { approval_threshold: input.approvalThreshold } : {}),
       ...(input.receiving?.priceTolerancePercent !== undefined ? { receiving_price_tolerance_pct: input.receiving.priceTolerancePercent } : {}),

@@ -6,6 +6,8 @@
 // - A withdrawal that names no lot draws first-expired-first-out: dated lots by date, then undated
 //   lots by receipt date; automatic draws skip expired lots; using an expired lot by name is refused.
 // - Quantities are exact decimals in the item's stock unit (lib/units); what the person typed is kept.
+// - Movements dated in a closed month are refused (409 PERIOD_CLOSED, lib/data/period-guard.ts):
+//   every posting checks inside its transaction; a reversal is dated now, in the open month.
 import "server-only";
 import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
@@ -17,6 +19,7 @@ import { AppError, conflict, notFound, validation } from "../http/errors";
 import { Dec, dec, plain, toStockUnits, toStored, unitCostPerStockUnit, UnitError } from "../units";
 import type { MovementInput } from "../validation/movements";
 import { loadItemForLedger, type LedgerItem } from "./items-for-ledger";
+import { assertPeriodOpen } from "./period-guard";
 
 export interface Movement {
   id: string;
@@ -348,6 +351,7 @@ export async function postInTransaction(
   const kitchen = await kitchenByCode(trx, actor, input.kitchen);
   assertCan(actor, input.kind === "receipt" ? "stock.receive" : "stock.post", { kitchenId: kitchen.id });
   if (kitchen.archived_at) throw validation({ kitchen: [`Kitchen ${kitchen.code} is archived.`] });
+  await assertPeriodOpen(trx, actor.companyId, occurredAt);
   const item = await loadItemForLedger(trx, actor.companyId, input.item);
   const amount = stockQuantity(input, item);
   const c: PostContext = {
@@ -435,13 +439,16 @@ export async function reverseMovement(actor: CurrentUser, id: string, reason?: s
     }
     const already = await trx("stock_movements").whereIn("reverses_id", legs.map((l) => l.id)).first("id");
     if (already) throw conflict("This movement has already been reversed.", "ALREADY_REVERSED");
+    // dated now, whatever the date of the movement reversed: a correction lands in the open month
+    const occurredAt = new Date();
+    await assertPeriodOpen(trx, actor.companyId, occurredAt);
     const item = await loadItemForLedger(trx, actor.companyId, m.item_id);
     const out: StockMovementRow[] = [];
     const postingId = randomUUID();
     for (const leg of legs) {
       const kitchen: KitchenRow = await trx("kitchens").where({ id: leg.kitchen_id }).first();
       const c: PostContext = {
-        trx, actor, postingId, item, kitchen, occurredAt: new Date(),
+        trx, actor, postingId, item, kitchen, occurredAt,
         enteredQuantity: dec(leg.delta).neg().toFixed(), enteredUnit: item.row.stock_unit, reason: reason ?? `Reversal of ${leg.id}`,
         batchId: leg.batch_id, // a reversed production use stays on the batch's trace
       };

@@ -8,18 +8,19 @@
 import "server-only";
 import { TZDate } from "@date-fns/tz";
 import { db } from "../../db/client";
-import type { ItemCategory, StockUnit } from "../../db/types";
+import type { ItemCategory, MovementKind, StockUnit } from "../../db/types";
 import { dateInZone } from "../alerts/expiry";
 import { assertCan } from "../auth/assert";
 import type { CurrentUser } from "../auth/current-user";
-import type { CostFormula } from "../costing/engine";
+import { VALUE_SCALE, type CostBasis, type CostFormula } from "../costing/engine";
 import { costCompany } from "../costing/load";
 import { toCsv, type CsvCell } from "../csv";
+import { workbook, type SheetColumn } from "../reports/xlsx";
 import { notFound } from "../http/errors";
 import { currencyExponent } from "../units/money";
 import { Dec, dec, plain, ZERO } from "../units/decimal";
 import { isUuid } from "../validation/items";
-import type { UsageGroup, UsageQuery, ValuationQuery } from "../validation/reports";
+import type { UsageGroup, UsageMovementsQuery, UsageQuery, ValuationQuery } from "../validation/reports";
 
 interface KitchenRef { id: string; code: string; name: string }
 interface ItemRef { id: string; sku: string; name: string; category: ItemCategory }
@@ -82,7 +83,8 @@ export function addMonths(month: string, n: number): string {
   return `${String(Math.floor(total / 12)).padStart(4, "0")}-${String((total % 12) + 1).padStart(2, "0")}`;
 }
 
-async function loadContext(user: CurrentUser, kitchenRef: string | undefined) {
+/** reports.read; the company, its kitchens (by id), the kitchen asked for (code or id; 404 if not the company's) and its items. The journal shares it. */
+export async function loadContext(user: CurrentUser, kitchenRef: string | undefined) {
   assertCan(user, "reports.read");
   const company: Company = await db()("companies").where({ id: user.companyId }).first("currency", "time_zone", "cost_formula");
   const kitchens: KitchenRef[] = await db()("kitchens").where({ company_id: user.companyId }).select("id", "code", "name").orderBy("code");
@@ -208,8 +210,102 @@ export async function valuationReport(user: CurrentUser, q: ValuationQuery): Pro
   };
 }
 
+export interface UsageMovement {
+  id: string;
+  /** ISO instant */
+  occurredAt: string;
+  kind: MovementKind;
+  kitchen: KitchenRef;
+  /** a transfer's other kitchen */
+  otherKitchen: KitchenRef | null;
+  lot: { id: string; code: string };
+  /** signed change of on hand, stock units */
+  quantity: string;
+  /** signed change of the kitchen's stock value by the cost formula (an issue is negative), half-even to the currency's decimals: shown only */
+  value: string;
+  /** |value / quantity| before rounding, half-even to VALUE_SCALE places: shown only */
+  unitCost: string;
+  basis: CostBasis;
+  reversal: boolean;
+  reason: string | null;
+  /** the usage report column the movement feeds; null: not usage (receipts, transfers) */
+  countsAs: "used" | "wasted" | "countDifference" | null;
+}
+
+export interface UsageMovements {
+  month: string;
+  item: ItemRef;
+  unit: StockUnit;
+  kitchen: KitchenRef | null;
+  currency: string;
+  costFormula: CostFormula;
+  /** in costing order (the ledger's order) */
+  movements: UsageMovement[];
+  /** the usage report's row for this item and month, worked the same way (exact sums, each rounded once) */
+  totals: { usedQuantity: string; wastedQuantity: string; countDifferenceQuantity: string; usedCost: string; wastedCost: string; cost: string; countDifferenceCost: string };
+}
+
+/**
+ * The usage report's drill-down: every movement of one item in one month (one kitchen or all), each
+ * with what the cost formula made of it, from the same engine run as the report (costCompany up to
+ * the month's end, this item only: an item is costed on its own).
+ */
+export async function usageMovements(user: CurrentUser, q: UsageMovementsQuery): Promise<UsageMovements> {
+  const { company, kitchens, kitchen, items } = await loadContext(user, q.kitchen);
+  const item = isUuid(q.item) ? items.get(q.item) : [...items.values()].find((i) => i.sku.toUpperCase() === q.item.toUpperCase());
+  if (!item) throw notFound("Item");
+  const tz = company.time_zone;
+  const start = dayStart(`${q.month}-01`, tz);
+  const end = dayStart(`${addMonths(q.month, 1)}-01`, tz);
+  const costs = await costCompany(db(), user.companyId, { before: end, formula: company.cost_formula, itemIds: [item.id] });
+  const costed = (costs.get(item.id)?.movements ?? []).filter((m) => m.occurredAt >= start && (!kitchen || m.kitchenId === kitchen.id));
+  const details: { id: string; other_kitchen_id: string | null; reverses_id: string | null; reason: string | null; lot_id: string; lot_code: string }[] = costed.length
+    ? await db()("stock_movements as m")
+        .join("lots as l", function () {
+          this.on("l.company_id", "=", "m.company_id").andOn("l.id", "=", "m.lot_id");
+        })
+        .where("m.company_id", user.companyId)
+        .whereIn("m.id", costed.map((m) => m.id))
+        .select("m.id", "m.other_kitchen_id", "m.reverses_id", "m.reason", "l.id as lot_id", "l.code as lot_code")
+    : [];
+  const byId = new Map(details.map((d) => [d.id, d]));
+  const places = currencyExponent(company.currency);
+  const money = (v: Dec) => v.toDecimalPlaces(places, Dec.ROUND_HALF_EVEN);
+  let used = ZERO, wasted = ZERO, countQty = ZERO, usedCost = ZERO, wastedCost = ZERO, countCost = ZERO;
+  const movements: UsageMovement[] = costed.map((m) => {
+    const d = byId.get(m.id)!;
+    const countsAs = m.kind === "use" ? "used" : m.kind === "waste" ? "wasted" : m.kind === "count" || m.kind === "adjustment" ? "countDifference" : null;
+    if (countsAs === "used") {
+      used = used.sub(m.delta);
+      usedCost = usedCost.sub(m.value);
+    } else if (countsAs === "wasted") {
+      wasted = wasted.sub(m.delta);
+      wastedCost = wastedCost.sub(m.value);
+    } else if (countsAs === "countDifference") {
+      countQty = countQty.add(m.delta);
+      countCost = countCost.add(m.value);
+    }
+    return {
+      id: m.id, occurredAt: m.occurredAt.toISOString(), kind: m.kind, kitchen: kitchens.get(m.kitchenId)!,
+      otherKitchen: d.other_kitchen_id ? (kitchens.get(d.other_kitchen_id) ?? null) : null, lot: { id: d.lot_id, code: d.lot_code },
+      quantity: plain(m.delta), value: money(m.value).toFixed(places),
+      unitCost: m.delta.isZero() ? "0" : plain(m.value.div(m.delta).abs().toDecimalPlaces(VALUE_SCALE, Dec.ROUND_HALF_EVEN)),
+      basis: m.basis, reversal: d.reverses_id !== null, reason: d.reason, countsAs,
+    };
+  });
+  const u = money(usedCost), w = money(wastedCost);
+  return {
+    month: q.month, item: { id: item.id, sku: item.sku, name: item.name, category: item.category }, unit: item.stock_unit, kitchen,
+    currency: company.currency, costFormula: company.cost_formula, movements,
+    totals: {
+      usedQuantity: plain(used), wastedQuantity: plain(wasted), countDifferenceQuantity: plain(countQty),
+      usedCost: u.toFixed(places), wastedCost: w.toFixed(places), cost: u.add(w).toFixed(places), countDifferenceCost: money(countCost).toFixed(places),
+    },
+  };
+}
+
 // CSV: one line per row, the same figures as the JSON (numbers as plain decimals, never quoted).
-const BOM = "\uFEFF";
+export const BOM = "\uFEFF";
 
 export function usageCsv(r: UsageReport, bom = false): string {
   const kitchenCols = r.groupBy === "kitchen" ? ["kitchen_code", "kitchen_name"] : [];
@@ -229,4 +325,60 @@ export function valuationCsv(r: ValuationReport, bom = false): string {
     ["as_of", "kitchen_code", "kitchen_name", "sku", "item", "category", "quantity", "unit", "value", "currency"],
     r.rows.map((x) => [r.asOf, x.kitchen.code, x.kitchen.name, x.item.sku, x.item.name, x.item.category, x.quantity, x.unit, x.value, r.currency]),
   );
+}
+
+// Spreadsheet files: the same rows and totals, a sheet per report (lib/reports/xlsx.ts).
+const CATEGORY_WORDS: Record<string, string> = { casing: "Casings", cure: "Cures", spice: "Spices", ingredient: "Other ingredients" };
+const FORMULA_WORDS: Record<CostFormula, string> = { fifo: "FIFO (first in, first out), per kitchen", average: "moving weighted average, per kitchen" };
+
+export function usageXlsx(r: UsageReport): Promise<Buffer> {
+  const columns: SheetColumn[] = [
+    { header: "Month", key: "month", kind: "text", width: 10 },
+    ...(r.groupBy === "kitchen" ? [{ header: "Kitchen", key: "kitchen", kind: "text" } as const] : []),
+    ...(r.groupBy === "item"
+      ? ([
+          { header: "SKU", key: "sku", kind: "text", width: 14 }, { header: "Item", key: "item", kind: "text", width: 32 },
+          { header: "Category", key: "category", kind: "text", width: 16 }, { header: "Unit", key: "unit", kind: "text", width: 6 },
+          { header: "Used", key: "usedQuantity", kind: "quantity" }, { header: "Wasted", key: "wastedQuantity", kind: "quantity" },
+        ] as const)
+      : r.groupBy === "category" ? [{ header: "Category", key: "category", kind: "text" } as const] : []),
+    { header: `Used cost (${r.currency})`, key: "usedCost", kind: "money" },
+    { header: `Wasted cost (${r.currency})`, key: "wastedCost", kind: "money" },
+    { header: `Cost (${r.currency})`, key: "cost", kind: "money" },
+    ...(r.groupBy === "item" ? [{ header: "Count difference", key: "countDifferenceQuantity", kind: "quantity" } as const] : []),
+    { header: `Count difference (${r.currency})`, key: "countDifferenceCost", kind: "money" },
+  ];
+  const rows = r.rows.map((x) => ({
+    month: x.month, kitchen: x.kitchen ? `${x.kitchen.code} ${x.kitchen.name}` : undefined, sku: x.item?.sku, item: x.item?.name,
+    category: x.category ? CATEGORY_WORDS[x.category] : undefined, unit: x.unit, usedQuantity: x.usedQuantity, wastedQuantity: x.wastedQuantity,
+    usedCost: x.usedCost, wastedCost: x.wastedCost, cost: x.cost, countDifferenceQuantity: x.countDifferenceQuantity, countDifferenceCost: x.countDifferenceCost,
+  }));
+  return workbook([{
+    name: "Usage",
+    preamble: [
+      `Usage and cost by month, ${r.from} to ${r.to}${r.kitchen ? `, ${r.kitchen.name}` : ", all kitchens"}`,
+      `Cost formula: ${FORMULA_WORDS[r.costFormula]}. Count differences are shown apart from usage.`,
+    ],
+    columns, rows, currencyDecimals: currencyExponent(r.currency),
+    totals: { month: "Total", usedCost: r.totals.usedCost, wastedCost: r.totals.wastedCost, cost: r.totals.cost, countDifferenceCost: r.totals.countDifferenceCost },
+  }]);
+}
+
+export function valuationXlsx(r: ValuationReport): Promise<Buffer> {
+  return workbook([{
+    name: "Valuation",
+    preamble: [
+      `Stock valuation at the end of ${r.asOf}${r.kitchen ? `, ${r.kitchen.name}` : ", all kitchens"}`,
+      `Cost formula: ${FORMULA_WORDS[r.costFormula]}.`,
+    ],
+    columns: [
+      { header: "Kitchen", key: "kitchen", kind: "text" }, { header: "SKU", key: "sku", kind: "text", width: 14 },
+      { header: "Item", key: "item", kind: "text", width: 32 }, { header: "Category", key: "category", kind: "text", width: 16 },
+      { header: "On hand", key: "quantity", kind: "quantity" }, { header: "Unit", key: "unit", kind: "text", width: 6 },
+      { header: `Value (${r.currency})`, key: "value", kind: "money" },
+    ],
+    rows: r.rows.map((x) => ({ kitchen: `${x.kitchen.code} ${x.kitchen.name}`, sku: x.item.sku, item: x.item.name, category: CATEGORY_WORDS[x.item.category], quantity: x.quantity, unit: x.unit, value: x.value })),
+    totals: { kitchen: "Total", value: r.totals.value },
+    currencyDecimals: currencyExponent(r.currency),
+  }]);
 }

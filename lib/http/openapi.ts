@@ -20,6 +20,8 @@ import { SESSION_COOKIE } from "../auth/session";
 import type { Alert } from "../data/alerts";
 import type { Dashboard } from "../data/dashboard";
 import type { UsageReport, ValuationReport } from "../data/reports";
+import type { AccountMapping } from "../data/accounts";
+import type { Journal } from "../data/journal";
 import type { CapturedMail } from "../data/captured-mail";
 import type { CasingCalculation } from "../data/casing-calculation";
 import type { Batch, ReserveAllResult } from "../data/batches";
@@ -28,10 +30,12 @@ import type { Company } from "../data/companies";
 import type { Recipe, RecipeSummary } from "../data/recipes";
 import type { InvitationSummary } from "../data/invitations";
 import type { JobHealth } from "../data/job-health";
+import type { Period, PeriodList } from "../data/periods";
 import type { Item } from "../data/items";
 import type { Kitchen } from "../data/kitchens";
 import type { Supplier, SupplierItem } from "../data/suppliers";
 import type { ItemPrices } from "../data/item-prices";
+import type { PriceVarianceReport } from "../data/price-variance";
 import type { PriceListImport, PriceListResult } from "../data/price-lists";
 import type { PurchaseOrder, PurchaseOrderPage } from "../data/purchase-orders";
 import type { ReorderSuggestions } from "../data/reorder-suggestions";
@@ -42,6 +46,8 @@ import { alertListQuery, alertListResponse, alertResponse, alertSnoozeInput } fr
 import { alertPreferencesInput, alertPreferencesResponse } from "../validation/preferences";
 import { dashboardResponse } from "../validation/dashboard";
 import { usageQueryFields, usageResponse, valuationQuery, valuationResponse } from "../validation/reports";
+import { accountMappingInput, accountMappingResponse } from "../validation/accounts";
+import { journalQueryFields, journalResponse } from "../validation/journal";
 import { invitationAcceptInput, passwordResetConfirmInput, passwordResetRequestInput, signInInput } from "../validation/auth";
 import { companyUpdateInput, invitationCreateInput, kitchenCreateInput, kitchenUpdateInput, userUpdateInput } from "../validation/company";
 import { casingCalculationInput, casingCalculationResponse } from "../validation/casing";
@@ -52,6 +58,7 @@ import {
 } from "../validation/batches";
 import { gs1LabelResponse, gs1ParseInput } from "../validation/gs1";
 import { jobHealthResponse, retryJobResponse, runScanResponse } from "../validation/jobs";
+import { periodListQuery, periodListResponse, periodMonthParams, periodReopenInput, periodResponse } from "../validation/periods";
 import { houseLimitsInput, houseLimitsResponse } from "../validation/house-limits";
 import { itemCreateInput, itemListQuery, itemPatchInput } from "../validation/items";
 import {
@@ -67,6 +74,7 @@ import {
 import {
   itemPricesQuery, itemPricesResponse, priceListImportListResponse, priceListResultResponse, priceListUploadQuery,
 } from "../validation/price-lists";
+import { priceVarianceQueryFields, priceVarianceResponse } from "../validation/price-variance";
 import { reorderOrdersInput, reorderOrdersResponse, reorderSuggestionsQuery, reorderSuggestionsResponse } from "../validation/reorder";
 import { recipeCreateInput, recipeGetQuery, recipeListQuery, recipeListResponse, recipeResponse, recipeVersionInput } from "../validation/recipes";
 import {
@@ -120,9 +128,14 @@ export type ResponseShapesMatch = [
   Assert<Same<z.infer<typeof itemPricesResponse>, ItemPrices>>,
   Assert<Same<z.infer<typeof alertResponse>, Alert>>,
   Assert<Same<z.infer<typeof jobHealthResponse>, JobHealth>>,
+  Assert<Same<z.infer<typeof periodResponse>, Period>>,
+  Assert<Same<z.infer<typeof periodListResponse>, PeriodList>>,
   Assert<Same<z.infer<typeof dashboardResponse>, Dashboard>>,
+  Assert<Same<z.infer<typeof priceVarianceResponse>, PriceVarianceReport>>,
   Assert<Same<z.infer<typeof usageResponse>, UsageReport>>,
   Assert<Same<z.infer<typeof valuationResponse>, ValuationReport>>,
+  Assert<Same<z.infer<typeof accountMappingResponse>, AccountMapping>>,
+  Assert<Same<z.infer<typeof journalResponse>, Journal>>,
 ];
 
 // ---------------------------------------------------------------------------------------------
@@ -220,6 +233,7 @@ const bodies = {
     weekStart: { description: "The first day of the planning week: monday, sunday or saturday. Left out: unchanged.", example: "sunday" },
     approvalThreshold: DECIMAL("Buyers approve purchase orders up to this total, managers and admins above it; in the currency sent, at most its decimals (422 otherwise). Left out: unchanged.", "750.00"),
     scanSeparator: { description: "What the company's scanners type instead of GS (ASCII 29) on case labels, used by POST /api/gs1/parse when a request sends no separator: 1 to 8 characters, at least one never found in GS1 data (e.g. | ~ ^ #); 422 otherwise. null: none. Left out: unchanged.", example: "|" },
+    costFormula: { description: "The reports' cost formula (IAS 2): fifo or average. Changeable only while no month is closed (409 COST_FORMULA_LOCKED). Left out: unchanged.", example: "fifo" },
     expiryWindows: { description: "The expiry scan's warnings per category (cure, casing, spice, ingredient): whole days before a lot's date, 1-3650, at most five, each once; [] for none. A category sent replaces its list; one left out is unchanged.", example: { cure: [60, 30, 7] } },
   }),
   kitchenCreate: requestBody("KitchenCreateInput", kitchenCreateInput, {
@@ -274,6 +288,9 @@ const bodies = {
     occurredAt: { description: "When it happened; may be back-dated, never in the future. Default now." },
   }),
   reverse: requestBody("ReverseInput", reverseInput),
+  periodReopen: requestBody("PeriodReopenInput", periodReopenInput, {
+    reason: { description: "Why the month is reopened (1 to 500 characters); kept on the audit trail.", example: "Supplier credit note for a March delivery booked late" },
+  }),
   transferRequest: requestBody("TransferRequestInput", transferRequestInput, {
     fromKitchen: { description: "The kitchen asked to send, by code.", example: "LANE" },
     toKitchen: { description: "Your kitchen, which receives, by code.", example: "YARD" },
@@ -455,8 +472,9 @@ export const TAGS = [
   { name: "Mail catcher", description: "Local development only: e-mail caught instead of sent." },
   { name: "Dashboard", description: "The Overview: cure expiring soon, items below their reorder point, next week's shortages, stock value by kitchen and the usage trend, over the kitchens you may read. Money at receipt cost." },
   { name: "Alerts", description: "What the daily scans found (lots near their date; later reorder and shortage), per kitchen, with each user's acknowledgements and snoozes." },
-  { name: "Reports", description: "The accountant's reports: usage and cost by month, stock valuation at a date (by the company's cost formula, FIFO or moving average, per kitchen), price variance; JSON or CSV." },
+  { name: "Reports", description: "The accountant's reports: usage and cost by month, stock valuation at a date (by the company's cost formula, FIFO or moving average, per kitchen), price variance, the movement journal with account codes from the accountant's mapping; JSON or CSV." },
   { name: "Jobs", description: "The background jobs behind alerts and e-mail (admins): queue counts, your company's failed jobs, each scan's last and next run, running a scan now." },
+  { name: "Periods", description: "Closing months (calendar months in the company's time zone): once a month is closed, stock movements dated in it are refused (409 PERIOD_CLOSED) and corrections go into the open months. Months close in order; only admins reopen, with a reason; every close and reopen is on the audit trail." },
   { name: "Reference", description: "This document." },
 ] as const;
 type TagName = (typeof TAGS)[number]["name"];
@@ -585,10 +603,10 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
   {
     method: "patch", path: "/api/company", operationId: "updateCompany", tag: "Company", auth: true,
     summary: "Change the company",
-    description: "Replaces the company's name, default time zone and currency (all three are required) and, when sent, the first day of the planning week (weekStart), the purchase order approval threshold (approvalThreshold), the receiving checks (receiving), the scanners' stand-in for GS (scanSeparator) and the expiry scan's warning windows (expiryWindows); left out: unchanged. Admins only.",
+    description: "Replaces the company's name, default time zone and currency (all three are required) and, when sent, the first day of the planning week (weekStart), the purchase order approval threshold (approvalThreshold), the receiving checks (receiving), the scanners' stand-in for GS (scanSeparator), the expiry scan's warning windows (expiryWindows) and the cost formula (costFormula); left out: unchanged. Admins only.",
     body: bodies.companyUpdate,
     success: { status: 200, description: "The company as saved.", schema: companyResponse },
-    errors: { 403: [ADMIN_ONLY("manage the company")] },
+    errors: { 403: [ADMIN_ONLY("manage the company")], 409: [["COST_FORMULA_LOCKED", "A change of the cost formula while a month is closed."]] },
   },
   // Kitchens ------------------------------------------------------------------------------
   {
@@ -1013,6 +1031,64 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
       403: [["FORBIDDEN", "Your role does not read reports."]],
       404: [["NOT_FOUND", "No such kitchen in your company."]],
       422: [["VALIDATION", "asOf not a real day as YYYY-MM-DD, or another bad parameter (details.fields)."]],
+    },
+  },
+  {
+    method: "get", path: "/api/reports/journal", operationId: "getMovementJournal", tag: "Reports", auth: true,
+    summary: "The movement journal, with account codes",
+    description: "One double entry per movement dated in the months from..to (the company's time zone, inclusive) whose value by the company's cost formula is not zero, with the account codes from the account mapping (GET /api/reports/accounts). The sides: use and waste: Dr the expense account of the kind (movement:use, movement:waste), Cr the inventory account of the item's category (inventory:<category>); a count or adjustment loss: Dr movement:loss, Cr inventory; a gain: Dr inventory, Cr movement:gain; a receipt: Dr inventory, Cr goods received (movement:receipt) at quantity x the receipt's unit cost, and when the cost formula values it otherwise (a reversal under the moving average, a backdated issue's shortfall settled) the difference on a third line to movement:gain or movement:loss. Transfers are left out: the value moves between kitchens within the same inventory account (transfersLeftOut counts the legs); only a transfer whose two legs do not net to zero books the difference on its arriving leg to gain or loss. A reversal is its own entry, dated when it was posted, with the sides swapped (a reversed count keeps the original's loss or gain account). Each line is rounded half-even to the currency's decimals, so every entry and the totals balance (debits = credits) as shown; a month's use + waste equals the usage report's cost whenever values are whole cents (else by rounding). A key with no account code has account null and is listed in unmapped. byAccount sums the lines per account code. kitchen: only entries of that kitchen. ?format=csv: one line per journal line (date, movement_id, posting_id, kind, kitchen_code, sku, account, account_name, mapping, debit, credit, currency, description; RFC 4180, UTF-8, bom=true for a byte order mark, text a spreadsheet would run neutralised, numbers left as numbers; needs reports.export). Accountants, managers and admins (reports.read).",
+    query: journalQueryFields.extend({
+      from: journalQueryFields.shape.from.meta({ description: "First month, YYYY-MM.", example: "2026-10" }),
+      to: journalQueryFields.shape.to.meta({ description: "Last month, YYYY-MM, inclusive; at most 36 months after from.", example: "2026-11" }),
+      kitchen: journalQueryFields.shape.kitchen.meta({ description: "Only this kitchen (code or id)." }),
+      format: journalQueryFields.shape.format.meta({ description: "json (default) or csv." }),
+      bom: journalQueryFields.shape.bom.meta({ description: "csv: true starts the file with a UTF-8 byte order mark." }),
+    }),
+    success: { status: 200, description: "The journal (text/csv with format=csv).", schema: journalResponse },
+    errors: {
+      403: [["FORBIDDEN", "Your role does not read reports (or, for the CSV, export them)."]],
+      404: [["NOT_FOUND", "No such kitchen in your company."]],
+      422: [["VALIDATION", "A month not as YYYY-MM, to before from, more than 36 months, or another bad parameter (details.fields)."]],
+    },
+  },
+  {
+    method: "get", path: "/api/reports/accounts", operationId: "getAccountMapping", tag: "Reports", auth: true,
+    summary: "The account mapping",
+    description: "The account codes the movement journal books to: inventory per item category (casing, cure, spice, ingredient) and, per movement, receipt (the goods-received clearing account), use and waste (expense accounts), loss and gain (count and adjustment differences, and cost differences the formula leaves). Transfers need none. unmapped lists the keys without a code. Accountants, managers and admins (reports.read).",
+    success: { status: 200, description: "The mapping.", schema: accountMappingResponse },
+    errors: { 403: [["FORBIDDEN", "Your role does not read reports."]] },
+  },
+  {
+    method: "put", path: "/api/reports/accounts", operationId: "setAccountMapping", tag: "Reports", auth: true,
+    summary: "Set the account mapping",
+    description: "Replaces the whole mapping (a key left out becomes unmapped), all or nothing: one bad entry and nothing is written. Admins and accountants (accounts.manage); managers may read it only.",
+    body: requestBody("AccountMappingInput", accountMappingInput, {
+      entries: {
+        description: "{kind, key, accountCode, name?}: kind inventory with key casing, cure, spice or ingredient; kind movement with key receipt, use, waste, loss or gain; each key once. accountCode: 1 to 20 letters, digits, dots or dashes, starting with a letter or digit. name: up to 100 characters, optional.",
+        example: [{ kind: "inventory", key: "cure", accountCode: "1300", name: "Stock - cures" }, { kind: "movement", key: "use", accountCode: "5010", name: "Materials used" }],
+      },
+    }),
+    success: { status: 200, description: "The mapping now in force.", schema: accountMappingResponse },
+    errors: {
+      403: [["FORBIDDEN", "Admins and accountants only."]],
+      422: [["VALIDATION", "An entry is wrong or maps a key twice: details.fields names it as entries.N.field."]],
+    },
+  },
+  {
+    method: "get", path: "/api/reports/price-variance", operationId: "getPriceVariance", tag: "Reports", auth: true,
+    summary: "Price variance per supplier and month",
+    description: "Every accepted line of the deliveries posted (booked into stock) in the months from..to, in the company's time zone, compared per stock unit: the delivered price (the note's or the buyer's correction, else the order line's, per the supplier item's pack) against the order line it was matched to (per that line's pack) and against the supplier item's price list on the day it was booked (the latest price from on or before it). Pack prices become prices per stock unit exactly (pack price / pack size in stock units); freight is not a price and stays out. orderVariance = (delivered - ordered) x quantity and listVariance = (delivered - list) x quantity in the company's currency: exact, each line's value rounded half-even to the currency's decimals, group and report totals the exact sum rounded once (so a total can differ by a cent from the sum of the rounded lines). A line with no order line or no list price has null there, never 0, is left out of that total and counted in withoutOrder / withoutListPrice. Groups per supplier and month. ?format=csv: the rows as CSV (RFC 4180; numbers as plain decimals, text that a spreadsheet would run neutralised; empty cell = null; needs reports.export, the same roles).",
+    query: priceVarianceQueryFields.extend({
+      from: priceVarianceQueryFields.shape.from.meta({ description: "The first month, yyyy-mm.", example: "2027-01" }),
+      to: priceVarianceQueryFields.shape.to.meta({ description: "The last month, yyyy-mm, included; not before from, at most 24 months in all (422 on to).", example: "2027-03" }),
+      supplier: priceVarianceQueryFields.shape.supplier.meta({ description: "Only this supplier (its id); another company's or unknown: 404." }),
+      format: priceVarianceQueryFields.shape.format.meta({ description: "json (default) or csv." }),
+    }),
+    success: { status: 200, description: "The report (text/csv with format=csv: the rows).", schema: priceVarianceResponse },
+    errors: {
+      403: [["FORBIDDEN", "Your role may not read reports (admins, managers and accountants only)."]],
+      404: [["NOT_FOUND", "No such supplier in your company."]],
+      422: [["VALIDATION", "A query parameter that is not valid (details.fields names it: a month not yyyy-mm, to before from, more than 24 months)."]],
     },
   },
   // Alerts --------------------------------------------------------------------------------
@@ -1596,6 +1672,52 @@ export const ENDPOINTS: readonly EndpointDoc[] = [
       404: [["NOT_FOUND", "No such queue, or no such job of your company (another company's job is 404 too)."]],
       409: [["JOB_NOT_FAILED", "The job is not failed (any more): details.state says what it is."]],
       503: [["QUEUE_UNAVAILABLE", "The job queue (Redis) is not answering. Try again later."]],
+    },
+  },
+  // Periods -------------------------------------------------------------------------------
+  {
+    method: "get", path: "/api/periods", operationId: "listPeriods", tag: "Periods", auth: true,
+    summary: "Months and their status",
+    description: "The company's months from `from` to `to` (default: the current month and the eleven before it, and back to the next month to close when that is older), newest first: open or closed, who closed each and when, and the audit trail of those months (every close and reopen, newest first). Months are calendar months in the company's time zone. Every month up to `closedThrough` is closed; `nextToClose` is the month that may be closed next.",
+    query: periodListQuery.extend({
+      from: periodListQuery.shape.from.meta({ description: "The first month, YYYY-MM.", example: "2026-01" }),
+      to: periodListQuery.shape.to.meta({ description: "The last month, YYYY-MM; default the current month.", example: "2026-12" }),
+    }),
+    success: { status: 200, description: "The months.", schema: periodListResponse },
+    errors: {
+      403: [["FORBIDDEN", "Your role may not see periods (admins, managers and accountants only)."]],
+      422: [["VALIDATION", "from or to is not a month as YYYY-MM, from is after to, or the range is over 120 months."]],
+    },
+  },
+  {
+    method: "post", path: "/api/periods/{month}/close", operationId: "closePeriod", tag: "Periods", auth: true, idempotent: true,
+    summary: "Close a month",
+    description: "Closes a month that is over in the company's time zone. From then on every stock movement dated in it, or in a month before it, is refused with 409 PERIOD_CLOSED (details.month): corrections are dated in an open month (a reversal is always dated when it is posted). Postings already under way when the close starts are committed first and belong to the closed month; postings arriving during the close wait for it and are then refused. Months close in order: after the latest closed month comes the next one; before any month is closed, any month that is over up to the month of the company's first movement (the empty months before it close with it). Recorded on the audit trail.",
+    params: periodMonthParams,
+    success: { status: 200, description: "The month, now closed.", schema: periodResponse },
+    errors: {
+      403: [["FORBIDDEN", "Your role may not close months (admins, managers and accountants only)."]],
+      409: [
+        ["PERIOD_ALREADY_CLOSED", "The month is already closed (details.month, details.closedAt); nothing is recorded twice."],
+        ["EARLIER_PERIOD_OPEN", "An earlier month must be closed first: details.month names it."],
+      ],
+      422: [["VALIDATION", "The month is not YYYY-MM, or it has not ended yet in the company's time zone (the current or a later month): details.fields.month."]],
+    },
+  },
+  {
+    method: "post", path: "/api/periods/{month}/reopen", operationId: "reopenPeriod", tag: "Periods", auth: true, idempotent: true,
+    summary: "Reopen a month",
+    description: "Reopens the latest closed month, so movements may be dated in it again. Admins only, with a reason; recorded on the audit trail with the reason. Months reopen from the latest back.",
+    params: periodMonthParams,
+    body: bodies.periodReopen,
+    success: { status: 200, description: "The month, now open.", schema: periodResponse },
+    errors: {
+      403: [ADMIN_ONLY("reopen months")],
+      409: [
+        ["PERIOD_NOT_CLOSED", "The month is not closed."],
+        ["LATER_PERIOD_CLOSED", "A later month is closed: details.month names the month to reopen first."],
+      ],
+      422: [["VALIDATION", "The month is not YYYY-MM (details.fields.month), or no reason is given (details.fields.reason)."]],
     },
   },
   // Reference -----------------------------------------------------------------------------

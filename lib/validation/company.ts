@@ -51,6 +51,8 @@ export const companyUpdateInput = z.object({
   approvalThreshold: approvalThreshold.optional(),
   /** receiving checks for deliveries; left out: unchanged */
   receiving: receivingSettings.optional(),
+  /** the cost formula (IAS 2): fifo or average; left out: unchanged; changeable only while no month is closed */
+  costFormula: z.enum(["fifo", "average"], { error: "fifo or average." }).optional(),
   /** warning windows of the expiry scan per category; a category left out: unchanged */
   expiryWindows: expiryWindows.optional(),
   /** what scanners type instead of GS; null: none; left out: unchanged */

@@ -17,7 +17,7 @@ const isRealDay = (s: string) => {
 };
 
 const flag = z.enum(["true", "false"], { error: "true or false." }).transform((v) => v === "true");
-export const REPORT_FORMATS = ["json", "csv"] as const;
+export const REPORT_FORMATS = ["json", "csv", "xlsx"] as const;
 export const USAGE_GROUPS = ["item", "category", "kitchen"] as const;
 export type UsageGroup = (typeof USAGE_GROUPS)[number];
 /** The longest range one usage report covers. */
@@ -29,7 +29,7 @@ export const usageQueryFields = z.object({
     to: yearMonth("to"),
     groupBy: z.enum(USAGE_GROUPS, { error: "One of item, category or kitchen." }).default("item"),
     kitchen: z.string().trim().min(1, "Name the kitchen by its code or id.").max(100).optional(),
-    format: z.enum(REPORT_FORMATS, { error: "json or csv." }).default("json"),
+    format: z.enum(REPORT_FORMATS, { error: "json, csv or xlsx." }).default("json"),
     /** CSV only: start with a byte order mark, for spreadsheet programs that need one to read UTF-8 */
     bom: flag.default(false),
 });
@@ -43,10 +43,18 @@ export type UsageQuery = z.infer<typeof usageQuery>;
 export const valuationQuery = z.object({
   asOf: z.string({ error: "asOf: a day as YYYY-MM-DD." }).refine(isRealDay, "asOf: a day as YYYY-MM-DD, e.g. 2026-11-30."),
   kitchen: z.string().trim().min(1, "Name the kitchen by its code or id.").max(100).optional(),
-  format: z.enum(REPORT_FORMATS, { error: "json or csv." }).default("json"),
+  format: z.enum(REPORT_FORMATS, { error: "json, csv or xlsx." }).default("json"),
   bom: flag.default(false),
 });
 export type ValuationQuery = z.infer<typeof valuationQuery>;
+
+/** The usage report's drill-down (the page /reports/usage/movements): one item's costed movements in one month. */
+export const usageMovementsQuery = z.object({
+  month: yearMonth("month"),
+  item: z.string({ error: "item: the item's id or SKU." }).trim().min(1, "item: the item's id or SKU.").max(100),
+  kitchen: z.string().trim().min(1, "Name the kitchen by its code or id.").max(100).optional(),
+});
+export type UsageMovementsQuery = z.infer<typeof usageMovementsQuery>;
 
 const money = (description: string) => z.string().meta({ description: `${description} A decimal string with the currency's decimals.`, example: "41.70" });
 const quantity = (description: string) => z.string().meta({ description: `${description} A decimal string in the item's stock unit.`, example: "2.5" });

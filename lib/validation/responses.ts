@@ -83,6 +83,7 @@ export const companyResponse = z
         .meta({ description: "The least remaining life, in days, a delivered lot may have per category before it is flagged short-dated (defaults cure 90, casing 60, spice 180, ingredient 0 = no check)." }),
     }),
     scanSeparator: z.string().nullable().meta({ description: "What the company's scanners type instead of GS (ASCII 29) on case labels; POST /api/gs1/parse uses it when a request sends no separator. null: none.", example: "|" }),
+    costFormula: z.enum(["fifo", "average"]).meta({ description: "The cost formula of the reports under IAS 2: fifo (cost layers in receipt order, the default) or average (moving weighted average); kept per kitchen. Admins change it while no month is closed." }),
     expiryWindows: z.object({ cure: z.array(z.number().int()), casing: z.array(z.number().int()), spice: z.array(z.number().int()), ingredient: z.array(z.number().int()) })
       .meta({ description: "The daily expiry scan warns when a lot with stock is this many days or fewer from its date, once per number, per category, largest first (defaults cure 60/30/7, casing 30/7, spice 90/30, ingredient none). These are the product's planning defaults, not trade figures.", example: { cure: [60, 30, 7], casing: [30, 7], spice: [90, 30], ingredient: [] } }),
   })

@@ -54,3 +54,21 @@ describe("the expiry warning windows", () => {
     expect(await db()("alerts").where({ company_id: co.company.id }).pluck("threshold_days")).toEqual([45]);
   });
 });
+
+describe("the cost formula", () => {
+  it("is fifo until an admin changes it; it cannot change while a month is closed (409), and nothing else in the request is saved", async () => {
+    expect((await read("manager")).body.costFormula).toBe("fifo");
+    const avg = await change("admin", { costFormula: "average" });
+    expect(avg.status, JSON.stringify(avg.body)).toBe(200);
+    expect(avg.body.costFormula).toBe("average");
+    expect((await change("admin", { costFormula: "lifo" })).status).toBe(422); // IAS 2 para. 25 allows no LIFO
+    await db()("accounting_periods").insert({ company_id: co.company.id, month: "2026-01-01" });
+    const locked = await change("admin", { costFormula: "fifo", name: "Renamed on the way" });
+    expect(locked.status).toBe(409);
+    expect(locked.body.error.code).toBe("COST_FORMULA_LOCKED");
+    expect((await read("admin")).body).toMatchObject({ costFormula: "average", name: co.company.name });
+    expect((await change("admin", { costFormula: "average" })).status).toBe(200); // the same formula again is no change
+    await db()("accounting_periods").where({ company_id: co.company.id }).delete();
+    expect((await change("admin", { costFormula: "fifo" })).body.costFormula).toBe("fifo");
+  });
+});

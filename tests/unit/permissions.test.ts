@@ -35,6 +35,7 @@ const EXPECTED = `
   orders.approve       all    all      limit  -             -
   reports.read         all    all      -      -             all
   reports.export       all    all      -      -             all
+  accounts.manage      all    -        -      -             all
   alerts.read          all    all      all    own           -
   dashboard.read       all    all      all    own           all
 `;

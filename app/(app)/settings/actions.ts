@@ -8,7 +8,7 @@ import { companyCureSettingsInput, companyUpdateInput } from "@/lib/validation/c
 
 export type CompanyFormState = FormState<{ name?: string; timeZone?: string; currency?: string; weekStart?: string; approvalThreshold?: string;
   priceTolerancePercent?: string; shortDatedCure?: string; shortDatedCasing?: string; shortDatedSpice?: string; scanSeparator?: string;
-  warnCure?: string; warnCasing?: string; warnSpice?: string; warnIngredient?: string }>;
+  warnCure?: string; warnCasing?: string; warnSpice?: string; warnIngredient?: string; costFormula?: string }>;
 
 /** A days field: blank leaves the setting as it is; anything else must be a whole number (zod says so). */
 const daysOf = (s: string) => (s.trim() === "" ? undefined : /^\d+$/.test(s.trim()) ? Number(s.trim()) : Number.NaN);
@@ -32,11 +32,13 @@ export async function updateCompanyAction(_prev: CompanyFormState, form: FormDat
     scanSeparator: String(form.get("scanSeparator") ?? ""),
     warnCure: String(form.get("warnCure") ?? ""), warnCasing: String(form.get("warnCasing") ?? ""),
     warnSpice: String(form.get("warnSpice") ?? ""), warnIngredient: String(form.get("warnIngredient") ?? ""),
+    costFormula: String(form.get("costFormula") ?? ""),
   };
   const parsed = companyUpdateInput.safeParse({
     ...values,
     // blank: no stand-in
     scanSeparator: values.scanSeparator === "" ? null : values.scanSeparator,
+    costFormula: values.costFormula || undefined,
     expiryWindows: { cure: daysListOf(values.warnCure), casing: daysListOf(values.warnCasing), spice: daysListOf(values.warnSpice), ingredient: daysListOf(values.warnIngredient) },
     receiving: {
       priceTolerancePercent: values.priceTolerancePercent.trim() === "" ? undefined : values.priceTolerancePercent,

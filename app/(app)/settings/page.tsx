@@ -19,7 +19,7 @@ export default async function CompanySettingsPage() {
     <>
       <PageHeader title="Company" description="The name people see, the clock the day runs on, the currency prices are kept in, the day the planning week begins, and the largest order a buyer approves alone." />
       <CompanyForm
-        company={{ name: company.name, timeZone: company.timeZone, currency: company.currency, weekStart: company.weekStart, approvalThreshold: company.approvalThreshold, receiving: company.receiving, scanSeparator: company.scanSeparator, expiryWindows: company.expiryWindows }}
+        company={{ name: company.name, timeZone: company.timeZone, currency: company.currency, weekStart: company.weekStart, approvalThreshold: company.approvalThreshold, receiving: company.receiving, scanSeparator: company.scanSeparator, expiryWindows: company.expiryWindows, costFormula: company.costFormula }}
         zones={timeZoneOptions(company.timeZone)}
       />
       <CureSettingsForm settings={cure} />

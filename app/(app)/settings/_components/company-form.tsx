@@ -7,6 +7,11 @@ import type { Company } from "@/lib/data/companies";
 import { WEEK_STARTS, type WeekStart } from "@/lib/validation/company";
 import { updateCompanyAction, type CompanyFormState } from "../actions";
 
+const COST_FORMULAS = [
+  { value: "fifo", label: "First in, first out", hint: "use is costed from the oldest stock received" },
+  { value: "average", label: "Moving average", hint: "use is costed at the average of what is in stock" },
+] as const;
+
 const WARN_FIELDS = [
   { name: "warnCure", category: "cure", label: "Cures" },
   { name: "warnCasing", category: "casing", label: "Casings" },
@@ -66,6 +71,25 @@ export function CompanyForm({ company, zones }: { company: Omit<Company, "id">; 
           defaultValue={state.values?.scanSeparator ?? company.scanSeparator ?? ""} errors={state.fieldErrors?.scanSeparator} className="max-w-[8rem]"
           hint="Only for scanners that cannot send GS into a browser: set them to type a character such as | or ~ instead, and enter it here. Leave empty when yours send GS."
         />
+      </fieldset>
+      <fieldset className="flex flex-col gap-3" {...describedBy("costFormula", state.fieldErrors?.costFormula)}>
+        <legend className="field-label">Cost formula of the reports</legend>
+        <div className="flex flex-wrap gap-3">
+          {COST_FORMULAS.map((f) => (
+            <label
+              key={f.value}
+              className="flex min-h-touch min-w-[14rem] flex-1 cursor-pointer items-center gap-3 rounded-md border border-brine-line bg-white px-3 py-2 hover:bg-salt has-[:checked]:border-paprika has-[:checked]:bg-paprika-soft"
+            >
+              <input type="radio" name="costFormula" value={f.value} defaultChecked={(state.values?.costFormula || company.costFormula) === f.value} className="h-5 w-5 accent-paprika" />
+              <span>
+                <span className="block font-semibold">{f.label}</span>
+                <span className="block text-sm text-brine">{f.hint}</span>
+              </span>
+            </label>
+          ))}
+        </div>
+        <p className="text-sm text-brine">Kept per kitchen. It can change only while no month is closed.</p>
+        <FieldError id="costFormula" errors={state.fieldErrors?.costFormula} />
       </fieldset>
       <fieldset className="flex flex-col gap-3">
         <legend className="field-label">Warnings before a lot&apos;s date</legend>
