@@ -1,14 +1,15 @@
 // The daily expiry scan of one company: every lot with stock in an open kitchen whose date falls
-// within its category's warning windows (companies.expiry_windows) gets one alert per crossed
-// threshold (lib/alerts/expiry.ts). Alerts are unique per (company, kind, kitchen, lot, threshold,
-// episode) and inserted with ON CONFLICT DO NOTHING, so running the scan twice, or a retry after a
-// crash half-way, makes nothing new. The payload is the company id only.
+// within its category's warning windows (companies.expiry_windows) gets an alert for the most urgent
+// threshold it has crossed, unless one of that threshold or a more urgent one is stored
+// (lib/alerts/expiry.ts). Alerts are unique per (company, kind, kitchen, lot, threshold, episode)
+// and inserted with ON CONFLICT DO NOTHING, so running the scan twice, two at once, or a retry after
+// a crash half-way, makes nothing new. The payload is the company id only.
 //
 // Scheduling: jobs/definitions/scans.ts (one scheduler per company and scan, in the company's time
 // zone; catch-up on worker start). E-mail is not sent here: the digests read the alerts stored.
 import type { Knex } from "knex";
 import type { DateKind, ItemCategory, StockUnit } from "../../db/types";
-import { crossedThresholds, dateInZone, normaliseWindows, type LotWithStock } from "../../lib/alerts/expiry";
+import { dateInZone, mostUrgentThresholds, normaliseWindows, type LotWithStock } from "../../lib/alerts/expiry";
 import { plain } from "../../lib/units/decimal";
 import { recordJobRun, scanPayload } from "./job-runs";
 
@@ -78,7 +79,7 @@ export async function runExpiryScan(knex: Knex, data: unknown, now: Date = new D
     )
     .orderBy([{ column: "l.date" }, { column: "b.lot_id" }, { column: "b.kitchen_id" }]);
 
-  const crossed = crossedThresholds(lots, today, windows);
+  const crossed = mostUrgentThresholds(lots, today, windows);
   let created = 0;
   if (crossed.length) {
     const rows = crossed.map(({ lot, thresholdDays, daysLeft }) => {
@@ -88,19 +89,25 @@ export async function runExpiryScan(knex: Knex, data: unknown, now: Date = new D
         quantity, unit: lot.unit, date: lot.date!, dateKind: lot.dateKind!, daysLeft, kitchenName: lot.kitchenName,
       };
       return {
-        company_id: companyId, kitchen_id: lot.kitchenId, kind: "expiry", subject_type: "lot", subject_id: lot.lotId, threshold_days: thresholdDays, episode: 0,
+        kitchen_id: lot.kitchenId, subject_id: lot.lotId, threshold_days: thresholdDays,
         title: title(lot, daysLeft),
         detail: `${quantity} ${lot.unit} in ${lot.kitchenName}; ${lot.dateKind === "use_by" ? "use by" : "best before"} ${lot.date} (${thresholdDays}-day warning).`,
-        data: JSON.stringify(alertData),
+        data: alertData,
       };
     });
     for (let i = 0; i < rows.length; i += 500) {
-      const inserted = await knex("alerts")
-        .insert(rows.slice(i, i + 500))
-        .onConflict(["company_id", "kind", "kitchen_id", "subject_id", "threshold_days", "episode"])
-        .ignore()
-        .returning("id");
-      created += inserted.length;
+      const inserted = await knex.raw<{ rows: { id: string }[] }>(
+        `insert into alerts (company_id, kitchen_id, kind, subject_type, subject_id, threshold_days, episode, title, detail, data)
+         select :companyId, v.kitchen_id, 'expiry', 'lot', v.subject_id, v.threshold_days, 0, v.title, v.detail, v.data
+           from jsonb_to_recordset(:rows::jsonb) as v(kitchen_id uuid, subject_id uuid, threshold_days int, title text, detail text, data jsonb)
+          where not exists (select 1 from alerts a
+                             where a.company_id = :companyId and a.kind = 'expiry' and a.kitchen_id = v.kitchen_id
+                               and a.subject_id = v.subject_id and a.threshold_days <= v.threshold_days)
+         on conflict do nothing
+         returning id`,
+        { companyId, rows: JSON.stringify(rows.slice(i, i + 500)) },
+      );
+      created += inserted.rows.length;
     }
   }
   const result = { status: "done" as const, today, lotsChecked: lots.length, crossed: crossed.length, created };

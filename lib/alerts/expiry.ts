@@ -1,14 +1,16 @@
 // Which expiry thresholds a lot has crossed. Pure: the caller gives "today" (a calendar date in
 // the company's time zone) and the company's warning windows; jobs/definitions/expiry-scan.ts
-// stores one alert per crossed threshold.
+// stores an alert for the most urgent threshold crossed (mostUrgentThresholds).
 //
 // Rules (DEVELOPERS.md "Alerts and scans"):
 // - days left = the lot's date - today, in calendar days (a use-by of today is 0 days left).
-// - a threshold is crossed when days left <= threshold; every crossed threshold is one alert, so a
-//   lot first seen 29 days out under [60, 30, 7] raises 60 and 30 at once, and 7 later.
+// - a threshold is crossed when days left <= threshold. A scan raises, per lot and kitchen, only the
+//   most urgent threshold crossed (mostUrgentThresholds), and only if no alert of that threshold or
+//   a more urgent one is stored: so a lot crossing 60, then 30, then 7 days left makes three alerts,
+//   one at a time, while a lot first seen 29 days out under [60, 30, 7] makes one (30), not two.
 // - a lot already expired (days left <= 0) has crossed every threshold of its category: it raises
-//   each one not yet stored. There is no separate "expired" threshold; the alert's data says
-//   daysLeft (negative: days past its date) and the title says expired.
+//   the most urgent one not yet stored. There is no separate "expired" threshold; the alert's data
+//   says daysLeft (negative: days past its date) and the title says expired.
 // - lots without a date and categories without a window (ingredients by default) raise nothing.
 import type { DateKind, ItemCategory } from "../../db/types";
 
@@ -59,6 +61,19 @@ export function normaliseWindows(raw: unknown): ExpiryWindows {
     if (!Array.isArray(list)) continue;
     const days = [...new Set(list.filter((d): d is number => Number.isInteger(d) && d > 0 && d <= 3650))].sort((a, b) => b - a);
     if (days.length) out[category as ItemCategory] = days;
+  }
+  return out;
+}
+
+/** Per lot (in the lots' order), the most urgent (smallest) threshold it has crossed on `today`. */
+export function mostUrgentThresholds<L extends LotWithStock>(lots: readonly L[], today: string, windows: ExpiryWindows): CrossedThreshold<L>[] {
+  const out: CrossedThreshold<L>[] = [];
+  let last: CrossedThreshold<L> | undefined;
+  for (const c of crossedThresholds(lots, today, windows)) {
+    // crossedThresholds lists a lot's thresholds together, largest first: keep the last of each lot
+    if (last && last.lot === c.lot) out[out.length - 1] = c;
+    else out.push(c);
+    last = c;
   }
   return out;
 }

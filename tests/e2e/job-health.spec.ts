@@ -2,7 +2,7 @@
 // before it existed). Its admin sees "Alerts delayed" in the header, opens Settings > Jobs, finds
 // the expiry scan "Not run yet" with its next run at 05:00, presses "Run now" and sees the page say
 // it is queued, then the last run arrive with what it found: a casing lot 6 days from its date has
-// crossed the 30- and 7-day windows (the product's defaults, issue 6): "2 new alerts, 1 lot checked".
+// crossed the 30- and 7-day windows (the product's defaults, issue 6), so its most urgent one: "1 new alert, 1 lot checked".
 // Back on another page the header no longer says alerts are delayed. Then a scan job of the company
 // fails (a scan the worker does not know: unrecoverable) and shows with its reason; Retry queues it
 // again. Finally Redis stops answering (CLIENT PAUSE, a real outage of a few seconds): the stock
@@ -74,9 +74,9 @@ test("the admin runs the expiry scan now and sees its last run arrive", async ({
 
   await row.getByRole("button", { name: /Run now/ }).click();
   await expect(page.getByRole("status").filter({ hasText: "queued — results arrive within seconds" })).toBeVisible();
-  await expect(row.getByTestId("last-run-expiry-scan")).toContainText("2 new alerts, 1 lot checked", { timeout: 15_000 });
+  await expect(row.getByTestId("last-run-expiry-scan")).toContainText("1 new alert, 1 lot checked", { timeout: 15_000 });
   await expect(row.getByTestId("last-run-expiry-scan")).toContainText("just now");
-  await expect(page.getByRole("status").filter({ hasText: "ran" })).toContainText("2 new alerts");
+  await expect(page.getByRole("status").filter({ hasText: "ran" })).toContainText("1 new alert");
   await expect(row.getByRole("button", { name: /Run now/ })).toBeEnabled();
   const run = await db()("job_runs").where({ company_id: co.company.id, job: "expiry-scan" }).first();
   expect(run.last_result).toMatchObject({ status: "done", created: 2, lotsChecked: 1 });
@@ -123,7 +123,7 @@ test("a failed job shows with its reason and is retried; while Redis does not an
   await page.goto("/settings/jobs");
   await expect(page.getByRole("alert").filter({ hasText: "The job queue is not answering, so alerts are delayed." })).toBeVisible();
   const row = page.getByRole("table", { name: "Scans" }).getByRole("row").filter({ hasText: "expiry-scan" });
-  await expect(row.getByTestId("last-run-expiry-scan")).toContainText("2 new alerts, 1 lot checked"); // from the database
+  await expect(row.getByTestId("last-run-expiry-scan")).toContainText("1 new alert, 1 lot checked"); // from the database
   await expect(row).toContainText("Unknown while the queue is down");
   await expect(row.getByRole("button", { name: /Run now/ })).toBeDisabled();
   await expect(page.getByText("Not known while the queue is down.").first()).toBeVisible();

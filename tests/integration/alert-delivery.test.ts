@@ -47,8 +47,10 @@ describe("deliverAlerts", () => {
     co = await createCompany({ kitchens: 2 });
     // everyone off while the alerts are made, so nothing else (a digest tick of the test worker) delivers them first
     await db()("app_users").where({ company_id: co.company.id }).update({ alert_email: "off" });
-    await receiveLot(co, 0, "cure", 20); // cure 60/30/7: 2 alerts in kitchen 1
+    await receiveLot(co, 0, "cure", 20); // cure 60/30/7: 2 alerts in kitchen 1 (two scans, below)
     await receiveLot(co, 1, "spice", 20); // spice 90/30: 2 alerts in kitchen 2
+    // a scan 15 days ago (35 days left: cure 60, spice 90), then today's (20 left: 30 for both)
+    await runExpiryScan(db(), { companyId: co.company.id }, new Date(Date.now() - 15 * 24 * 3600_000));
     await runExpiryScan(db(), { companyId: co.company.id });
     const rows = await db()("alerts").where({ company_id: co.company.id }).select("id", "kitchen_id");
     yardAlerts = rows.filter((r) => r.kitchen_id === co.kitchens[0]!.id).map((r) => r.id).sort();
@@ -93,21 +95,22 @@ describe("deliverAlerts", () => {
     expect(await deliverAlerts(db(), { companyId: co.company.id }, APP, at7)).toMatchObject({ emails: 1, alerts: 4 });
     expect(await deliverAlerts(db(), { companyId: co.company.id }, APP, new Date(at7.getTime() + 15 * 60_000))).toMatchObject({ emails: 0 });
     // a new alert later that day waits for tomorrow's digest, unless an admin runs the scan now
-    await receiveLot(co, 0, "cure", 5); // 60/30/7: three more alerts
+    await receiveLot(co, 0, "cure", 5); // 60/30/7, first seen 5 days out: one alert (7)
     await runExpiryScan(db(), { companyId: co.company.id });
     const later = new Date(at7.getTime() + 60 * 60_000);
-    // the immediate people who see kitchen 1 get them: manager, kitchen lead, buyer (3 alerts each)
-    expect(await deliverAlerts(db(), { companyId: co.company.id }, APP, later)).toMatchObject({ emails: 3, alerts: 9 });
+    // the immediate people who see kitchen 1 get it: manager, kitchen lead, buyer
+    expect(await deliverAlerts(db(), { companyId: co.company.id }, APP, later)).toMatchObject({ emails: 3, alerts: 3 });
     expect(await delivered(admin)).toHaveLength(4);
-    expect(await deliverAlerts(db(), { companyId: co.company.id, force: true }, APP, later)).toMatchObject({ emails: 1, alerts: 3 });
-    expect(await delivered(admin)).toHaveLength(7);
+    expect(await deliverAlerts(db(), { companyId: co.company.id, force: true }, APP, later)).toMatchObject({ emails: 1, alerts: 1 });
+    expect(await delivered(admin)).toHaveLength(5);
   });
 
   it("leaves out acknowledged, snoozed and other kinds than the person's; off means nothing", async () => {
     const p = await createCompany({ kitchens: 1 });
     await db()("app_users").where({ company_id: p.company.id }).update({ alert_email: "off" });
     await receiveLot(p, 0, "cure", 20);
-    await runExpiryScan(db(), { companyId: p.company.id });
+    await runExpiryScan(db(), { companyId: p.company.id }, new Date(Date.now() - 15 * 24 * 3600_000)); // 35 days left: 60
+    await runExpiryScan(db(), { companyId: p.company.id }); // 20 left: 30
     const [a60, a30] = await db()("alerts").where({ company_id: p.company.id }).orderBy("threshold_days", "desc").pluck("id");
     const m = p.users.manager.id;
     await db()("alert_states").insert({ alert_id: a60, user_id: m, acknowledged_at: new Date() });
@@ -139,20 +142,22 @@ describe("through the worker and the mail catcher", () => {
   it("run now: the scan and the digest at once; run twice, the catcher holds one e-mail per person", async () => {
     const co = await createCompany({ kitchens: 1 });
     const start = new Date();
-    await receiveLot(co, 0, "cure", 3); // 60/30/7: three alerts
+    await receiveLot(co, 0, "cure", 3);
+    // a scan a month ago saw it 33 days out (the 60-day alert); run now adds the 7-day one: two alerts, one lot
+    await runExpiryScan(db(), { companyId: co.company.id }, new Date(Date.now() - 30 * 24 * 3600_000));
     // digest people not yet due (last digest just now): only run-now may send
     await db()("app_users").where({ company_id: co.company.id }).update({ alert_email: "digest", alert_last_digest_at: new Date() });
     await enqueueScanNow(queue, EXPIRY_SCAN_JOB, co.company.id);
     const to = co.users.manager.email;
     const [mail] = await waitForMails({ to, after: start, count: 1, timeoutMs: 15_000 });
-    // three alerts (60, 30, 7 days) about one lot: one line, at its most urgent warning
+    // two alerts (60 and 7 days) about one lot: one line, at its most urgent warning
     expect(mail!.subject).toBe(`${co.company.name}: 1 alert in today's digest`);
     expect(mail!.text).toContain("(7-day warning)");
     expect(mail!.text).not.toContain("(60-day warning)");
     expect(mail!.text).toContain(CURE_CAUTION);
     expect(mail!.text).toContain(`${process.env.APP_URL}/alerts`);
     expect(mail!.html).toContain("Lots nearing their date (1)");
-    expect(await db()("alert_deliveries").where({ user_id: co.users.manager.id })).toHaveLength(3); // all three recorded as sent
+    expect(await db()("alert_deliveries").where({ user_id: co.users.manager.id })).toHaveLength(2); // both recorded as sent
     expect(mail!.companyId).toBe(co.company.id);
     // the admin, the buyer and the kitchen lead get theirs; the accountant nothing
     await waitForMails({ to: co.users.admin.email, after: start, count: 1, timeoutMs: 10_000 });

@@ -38,9 +38,11 @@ const snooze = (who: string, id: string, body: unknown) => call(snoozeRoute, { p
 beforeAll(async () => {
   co = await createCompany({ kitchens: 2 });
   other = await createCompany({ kitchens: 1 });
-  cureLot = await receiveLot(co, 0, "cure", 20); // cure 60/30/7: two alerts in kitchen 1
+  cureLot = await receiveLot(co, 0, "cure", 20); // cure 60/30/7: two alerts in kitchen 1 (see the two scans)
   spiceLot = await receiveLot(co, 1, "spice", 20); // spice 90/30: two alerts in kitchen 2
   await receiveLot(other, 0, "cure", 3);
+  // a scan 15 days ago (35 days left: cure 60, spice 90), then today's (20 left: 30 for both)
+  await runExpiryScan(db(), { companyId: co.company.id }, new Date(Date.now() - 15 * 24 * 3600_000));
   await runExpiryScan(db(), { companyId: co.company.id });
   await runExpiryScan(db(), { companyId: other.company.id });
   otherAlertId = (await db()("alerts").where({ company_id: other.company.id }).first()).id;

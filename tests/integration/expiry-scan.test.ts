@@ -44,7 +44,7 @@ beforeAll(async () => {
 });
 
 describe("runExpiryScan", () => {
-  it("raises one alert per crossed threshold, none for a lot outside its window, and none new when run again", async () => {
+  it("raises the most urgent threshold crossed, one at a time as days pass; none outside the window; none new when run again", async () => {
     const far = await receiveLot(co, 0, "cure", 65);
     const near = await receiveLot(co, 0, "cure", 59);
     const nearer = await receiveLot(co, 0, "cure", 29, "125.5");
@@ -52,29 +52,33 @@ describe("runExpiryScan", () => {
     const theirs = await receiveLot(other, 0, "cure", 5);
 
     const first = await runExpiryScan(db(), { companyId: co.company.id }, NOW);
-    expect(first).toMatchObject({ status: "done", today: dateInZone(NOW, "Europe/London"), created: 3 });
+    expect(first).toMatchObject({ status: "done", today: dateInZone(NOW, "Europe/London"), created: 2 });
 
     const rows = await alertsOf(co.company.id);
     expect(rows.filter((r) => r.subject_id === far.lotId)).toHaveLength(0);
     expect(rows.filter((r) => r.subject_id === near.lotId).map((r) => r.threshold_days)).toEqual([60]);
     const nearerRows = rows.filter((r) => r.subject_id === nearer.lotId);
-    expect(nearerRows.map((r) => r.threshold_days)).toEqual([60, 30]);
+    expect(nearerRows.map((r) => r.threshold_days)).toEqual([30]); // first seen past 60 and 30: only 30
     expect(nearerRows[0]).toMatchObject({ kind: "expiry", subject_type: "lot", kitchen_id: co.kitchens[0]!.id, episode: 0 });
     expect(nearerRows[0].data).toMatchObject({ lotCode: nearer.code, quantity: "125.5", unit: "g", daysLeft: 29, category: "cure", date: plusDays(29) });
     expect(rows.some((r) => r.subject_id === theirs.lotId)).toBe(false); // another company's lots never appear
 
     const again = await runExpiryScan(db(), { companyId: co.company.id }, NOW);
-    expect(again).toMatchObject({ status: "done", created: 0, crossed: 3 });
-    expect(await alertsOf(co.company.id)).toHaveLength(3);
+    expect(again).toMatchObject({ status: "done", created: 0, crossed: 2 });
+    expect(await alertsOf(co.company.id)).toHaveLength(2);
 
-    // 55 days pass: the 65-day lot has 10 left (60, 30), the 59-day lot 4 (30, 7), the 29-day lot
-    // expired 26 days ago (7); earlier alerts stay single
+    // 25 days pass: the 59-day lot has 34 left (60 stored, 30 not yet), the 29-day lot 4 (7), the 65-day 40 (60)
+    const mid = await runExpiryScan(db(), { companyId: co.company.id }, addDays(NOW, 25));
+    expect(mid).toMatchObject({ created: 2 });
+    // 55 days pass: the 65-day lot has 10 left (30), the 59-day lot 4 (7), the 29-day lot expired 26
+    // days ago (7 already stored: nothing); a lot crossing 60, then 30, then 7 made three alerts
     const later = await runExpiryScan(db(), { companyId: co.company.id }, addDays(NOW, 55));
-    expect(later).toMatchObject({ created: 2 + 2 + 1 });
+    expect(later).toMatchObject({ created: 2 });
     const after = await alertsOf(co.company.id);
-    expect(after.filter((r) => r.subject_id === near.lotId).map((r) => r.threshold_days)).toEqual([60, 30, 7]);
+    expect(after.filter((r) => r.subject_id === near.lotId).map((r) => r.threshold_days)).toEqual([60, 7]); // 30 was passed between runs at 34 and 4 days
     expect(after.filter((r) => r.subject_id === far.lotId).map((r) => r.threshold_days)).toEqual([60, 30]);
-    expect(after.find((r) => r.subject_id === nearer.lotId && r.threshold_days === 7)).toMatchObject({ title: expect.stringContaining("expired 26 days ago") });
+    expect(after.filter((r) => r.subject_id === nearer.lotId).map((r) => r.threshold_days)).toEqual([30, 7]);
+    expect(after.find((r) => r.subject_id === nearer.lotId && r.threshold_days === 7)).toMatchObject({ title: expect.stringContaining("4 days left") });
 
     const run = await db()("job_runs").where({ company_id: co.company.id, job: EXPIRY_SCAN_JOB }).first();
     expect(run.last_run_at.toISOString()).toBe(addDays(NOW, 55).toISOString());
@@ -123,16 +127,17 @@ describe("the worker", () => {
 
   it("runs an expiry scan enqueued on the real Redis and stores its alerts", async () => {
     const c = await createCompany({ kitchens: 1 });
-    const lot = await receiveLot(c, 0, "casing", 6); // today's real date: casings 30/7 -> two alerts
+    const lot = await receiveLot(c, 0, "casing", 6); // today's real date: casings 30/7 -> past both: the 7-day alert
     await queue.add(EXPIRY_SCAN_JOB, { companyId: c.company.id }, { ...SCAN_JOB_OPTIONS, jobId: `test-${c.company.id}` });
     let rows: { threshold_days: number }[] = [];
-    for (let i = 0; i < 100 && rows.length < 2; i++) {
+    for (let i = 0; i < 100 && rows.length < 1; i++) {
       await sleep(150);
       rows = await db()("alerts").where({ company_id: c.company.id, subject_id: lot.lotId }).orderBy("threshold_days", "desc");
     }
-    expect(rows.map((r) => r.threshold_days)).toEqual([30, 7]);
     const job = await queue.getJob(`test-${c.company.id}`);
+    for (let i = 0; i < 50 && (await job?.getState()) !== "completed"; i++) await sleep(100);
     expect(await job?.getState()).toBe("completed");
+    expect(rows.map((r) => r.threshold_days)).toEqual([7]);
   });
 
   it("keeps one scheduler per company and scan in the company's time zone, and drops those of deleted companies", async () => {
@@ -165,7 +170,7 @@ describe("the worker", () => {
       await sleep(150);
       run = await db()("job_runs").where({ company_id: c.company.id, job: EXPIRY_SCAN_JOB }).first();
     }
-    expect(run?.last_result).toMatchObject({ status: "done", created: 2 }); // spices 90/30
-    expect(await db()("alerts").where({ company_id: c.company.id })).toHaveLength(2);
+    expect(run?.last_result).toMatchObject({ status: "done", created: 1 }); // spices 90/30: 10 days left, the 30-day alert
+    expect(await db()("alerts").where({ company_id: c.company.id })).toHaveLength(1);
   });
 });

@@ -183,12 +183,12 @@ describe("POST /api/jobs/:name/run", () => {
       (row) => row.last_run_at > before.last_run_at,
       10_000,
     );
-    // a casing lot 6 days from its date has crossed the 30- and 7-day windows: two alerts
-    expect(run.last_result).toMatchObject({ status: "done", lotsChecked: 1, created: 2 });
+    // a casing lot 6 days from its date has crossed the 30- and 7-day windows: the most urgent, one alert
+    expect(run.last_result).toMatchObject({ status: "done", lotsChecked: 1, created: 1 });
     const h = await health("admin");
     expect(h.body.scans.find((s: { name: string }) => s.name === EXPIRY_SCAN_JOB)).toMatchObject({
       lastRunAt: run.last_run_at.toISOString(),
-      lastResultText: "2 new alerts, 1 lot checked",
+      lastResultText: "1 new alert, 1 lot checked",
     });
   });
 

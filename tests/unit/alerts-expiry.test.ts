@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { crossedThresholds, dateInZone, daysBetween, DEFAULT_EXPIRY_WINDOWS, normaliseWindows, type LotWithStock } from "../../lib/alerts/expiry";
+import { crossedThresholds, dateInZone, daysBetween, DEFAULT_EXPIRY_WINDOWS, mostUrgentThresholds, normaliseWindows, type LotWithStock } from "../../lib/alerts/expiry";
 
 // The windows are the product's planning defaults (issue 6: cure 60/30/7, casings 30/7, spices
 // 90/30 days), not trade figures; "days left" counts calendar days to the printed date.
@@ -59,5 +59,16 @@ describe("normaliseWindows", () => {
   it("keeps whole positive days, largest first, without repeats", () => {
     expect(normaliseWindows({ cure: [7, 60, 30, 30], casing: [], spice: [0, -3, 1.5, 14], ingredient: "x" })).toEqual({ cure: [60, 30, 7], spice: [14] });
     expect(normaliseWindows(null)).toEqual({});
+  });
+});
+
+describe("mostUrgentThresholds", () => {
+  it("keeps, per lot, the smallest threshold crossed (the one a scan raises)", () => {
+    const lots = [lot("2026-12-31"), lot("2027-02-05"), lot("2026-11-30"), lot("2027-01-31", "casing")];
+    // 29 days: 60 and 30 crossed -> 30; 65 days: none; expired: all three -> 7; casing 60 days: none of 30/7
+    expect(mostUrgentThresholds(lots, TODAY, DEFAULT_EXPIRY_WINDOWS).map((c) => [c.lot.date, c.thresholdDays])).toEqual([
+      ["2026-12-31", 30],
+      ["2026-11-30", 7],
+    ]);
   });
 });

@@ -1,6 +1,6 @@
 // Reports: an index of what there is to read (and, for periods, to close). Each report is one
 // entry of REPORTS; each page decides its own access.
-import { ChevronRight, LockKeyhole } from "lucide-react";
+import { BarChart3, ChevronRight, LockKeyhole, Receipt, Scale } from "lucide-react";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
@@ -22,6 +22,27 @@ interface ReportLink {
 }
 
 const REPORTS: ReportLink[] = [
+  {
+    href: "/reports/usage",
+    title: "Usage",
+    description: "What each kitchen used and wasted month by month, and what it cost by the company's cost formula; count differences apart; downloads as CSV or a spreadsheet.",
+    icon: <BarChart3 />,
+    needs: ["reports.read"],
+  },
+  {
+    href: "/reports/valuation",
+    title: "Valuation",
+    description: "What the stock on hand was worth at the end of a day, per kitchen, item and category.",
+    icon: <Scale />,
+    needs: ["reports.read"],
+  },
+  {
+    href: "/reports/price-variance",
+    title: "Price variance",
+    description: "Deliveries against their orders and the suppliers' price lists, per supplier and month, with the value of the differences.",
+    icon: <Receipt />,
+    needs: ["reports.read"],
+  },
   {
     href: "/reports/periods",
     title: "Periods",
