@@ -39,9 +39,9 @@ for (const role of ROLES) {
   test(`${role} signs in and sees the navigation of their job`, async ({ page }) => {
     const user = co.users[role];
     await signIn(page, user.email, co.password);
-    // managers land on the Overview, everyone else on Stock (lib/auth/home.ts)
-    const home = role === "manager" ? "Overview" : "Stock";
-    await expect(page).toHaveURL(role === "manager" ? /\/overview$/ : /\/stock$/);
+    // managers land on the Overview, accountants on Reports, everyone else on Stock (lib/auth/home.ts)
+    const home = role === "manager" ? "Overview" : role === "accountant" ? "Reports" : "Stock";
+    await expect(page).toHaveURL(role === "manager" ? /\/overview$/ : role === "accountant" ? /\/reports$/ : /\/stock$/);
     const nav = page.getByRole("navigation", { name: "Main" });
     await expect(nav.getByRole("listitem")).toHaveText(NAV[role]);
     await expect(nav.getByRole("link", { name: home })).toHaveAttribute("aria-current", "page");

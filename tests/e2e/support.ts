@@ -22,8 +22,8 @@ export async function signIn(page: Page, email: string, password: string): Promi
 export async function signedInPage(browser: Browser, email: string, password: string, kitchenId?: string): Promise<Page> {
   const page = await (await browser.newContext({ viewport: { width: 1024, height: 768 } })).newPage();
   await signIn(page, email, password);
-  // managers land on the Overview (lib/auth/home.ts); these stories start from the stock page
-  await expect(page).toHaveURL(/\/(stock|overview)$/);
+  // managers land on the Overview, accountants on Reports (lib/auth/home.ts); these stories start from the stock page
+  await expect(page).toHaveURL(/\/(stock|overview|reports)$/);
   if (!new URL(page.url()).pathname.endsWith("/stock")) await page.goto("/stock");
   if (kitchenId) {
     // work in this kitchen, as the kitchen switcher would choose it
