@@ -21,7 +21,7 @@
 // reports.read (accountants, managers, admins; every kitchen); the CSV needs reports.export.
 import "server-only";
 import { db } from "../../db/client";
-import type { ItemCategory, MovementKind, StockUnit } from "../../db/types";
+import type { ItemCategory, MovementKind, StockMovementRow, StockUnit } from "../../db/types";
 import { dateInZone } from "../alerts/expiry";
 import { assertCan } from "../auth/assert";
 import type { CurrentUser } from "../auth/current-user";
@@ -83,19 +83,7 @@ export interface Journal {
   totals: { debit: string; credit: string };
 }
 
-interface MovementRow {
-  id: string;
-  posting_id: string;
-  kind: MovementKind;
-  kitchen_id: string;
-  item_id: string;
-  lot_id: string;
-  delta: string;
-  unit_cost: string;
-  reverses_id: string | null;
-  occurred_at: Date;
-  recorded_at: Date;
-}
+type MovementRow = Pick<StockMovementRow, "id" | "posting_id" | "kind" | "kitchen_id" | "item_id" | "lot_id" | "delta" | "unit_cost" | "reverses_id" | "occurred_at" | "recorded_at">;
 
 const KIND_WORDS: Record<MovementKind, string> = {
   receipt: "receipt", transfer: "transfer cost difference", use: "use", waste: "waste", adjustment: "adjustment", count: "count difference",
