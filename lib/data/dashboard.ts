@@ -9,21 +9,38 @@
 //   ./batches.ts) for batches of today and the six days after
 // - stock value by kitchen and the usage trend
 //
-// Money is "at receipt cost": on hand x the lot's unit cost (lots.unit_cost, per stock unit,
-// fixed when the lot was received; stock_movements.unit_cost carries the same figure). There is
-// no cost formula yet (average or FIFO costing comes with accounting). Products are exact in SQL
-// NUMERIC; each value shown is rounded once, half-even, to the currency's decimals, and a total
-// is the sum of the rounded values above it, so a column adds up.
+// Money follows the company's cost formula (companies.cost_formula: FIFO or moving average, kept
+// per kitchen; lib/costing/engine.ts), from ONE engine run per request (costCompany, as the
+// reports run it), over every kitchen of the company since transfers tie them together, up to the
+// end of the company's today (a movement may be dated up to a minute ahead of its posting, so the
+// end of the day, not this instant, is what agrees with the balances; it is also what
+// Reports > Valuation for today costs up to). From that run:
+// - stock value by kitchen: each item's value in the kitchen (its position) rounded, then added:
+//   the rows and kitchen totals of Reports > Valuation for today (valuationReport);
+// - usage trend: use and waste net of reversals as the formula costed them, used and wasted each
+//   rounded per month and category, then added: the cost of Reports > Usage by category
+//   (usageReport);
+// - a cure lot's value: its on hand x the kitchen's unit value of the item under the formula
+//   (position value / position quantity), rounded once. The ledger draws lots FEFO, the formula
+//   costs what leaves, so a lot has no cost of its own under the formula; its share of the item's
+//   value in the kitchen is what it is worth there.
+// Values are exact decimals until shown; each is rounded once, half-even, to the currency's
+// decimals (where a figure adds several, as the reports do, each part is rounded once and the
+// parts added), and a total is the sum of the rounded values above it, so a column adds up.
 //
 // Who sees what: dashboard.read per kitchen. Admins, managers, buyers and accountants read every
 // open kitchen of their company, kitchen leads their own. Every query names the company and the
-// kitchens. "Today" and months are the company's (its time zone), as for expiry everywhere.
+// kitchens; the costing run covers every kitchen (a transfer carries its cost from one to the
+// other), and only the user's kitchens' figures are taken from it. "Today" and months are the
+// company's (its time zone), as for expiry everywhere.
 import "server-only";
 import { db } from "../../db/client";
 import type { DateKind, ItemCategory, StockUnit } from "../../db/types";
 import { DEFAULT_EXPIRY_WINDOWS, dateInZone, daysBetween, normaliseWindows } from "../alerts/expiry";
 import type { CurrentUser } from "../auth/current-user";
 import { can, canSomewhere } from "../auth/permissions";
+import type { CostFormula, CostingResult } from "../costing/engine";
+import { costCompany } from "../costing/load";
 import { CURE_CAUTION } from "../cure/caution";
 import { forbidden } from "../http/errors";
 import { currencyDecimals } from "../purchasing/order-money";
@@ -31,6 +48,7 @@ import { gatherReorder, type ReorderItemRef } from "../reorder/gather";
 import type { OfferFigures } from "../reorder/suggest";
 import { Dec, dec, plain, ZERO } from "../units/decimal";
 import { listShortBatches } from "./batches";
+import { dayStart } from "./reports";
 
 export interface DashboardKitchen {
   id: string;
@@ -47,7 +65,7 @@ export interface ExpiringCureLot {
   lot: { id: string; code: string };
   /** on hand in the kitchen, stock unit */
   quantity: string;
-  /** on hand x the lot's unit cost, currency decimals */
+  /** on hand x the kitchen's unit value of the item under the cost formula, currency decimals */
   value: string;
   date: string;
   dateKind: DateKind;
@@ -123,7 +141,8 @@ export interface UsageTrendPanel {
 export interface Dashboard {
   today: string;
   currency: string;
-  costBasis: "receipt";
+  /** the company's cost formula, which every money figure follows */
+  costFormula: CostFormula;
   kitchens: DashboardKitchen[];
   cureExpiring: CureExpiringPanel;
   belowReorder: BelowReorderPanel;
@@ -142,9 +161,13 @@ interface Scope {
   today: string;
   timeZone: string;
   currency: string;
+  costFormula: CostFormula;
   cureWindow: number;
   kitchens: DashboardKitchen[];
 }
+
+/** The engine's answer per item (lib/costing/load.ts). */
+type Costs = Map<string, CostingResult>;
 
 const kitchenIds = (s: Scope) => s.kitchens.map((k) => k.id);
 
@@ -172,9 +195,9 @@ const sumMoney = (values: readonly string[], currency: string) => values.reduce<
 /** The company's date, currency, cure window and the open kitchens the user may read here (403 without any). */
 async function scopeOf(user: CurrentUser, now: Date): Promise<Scope> {
   if (!canSomewhere(user, "dashboard.read")) throw forbidden("The overview covers your kitchens, and you have none assigned yet: ask an admin.");
-  const company: { time_zone: string; currency: string; expiry_windows: unknown } = await db()("companies")
+  const company: { time_zone: string; currency: string; expiry_windows: unknown; cost_formula: CostFormula } = await db()("companies")
     .where({ id: user.companyId })
-    .first("time_zone", "currency", "expiry_windows");
+    .first("time_zone", "currency", "expiry_windows", "cost_formula");
   const open: DashboardKitchen[] = await db()("kitchens")
     .where({ company_id: user.companyId })
     .whereNull("archived_at")
@@ -186,19 +209,29 @@ async function scopeOf(user: CurrentUser, now: Date): Promise<Scope> {
     today: dateInZone(now, company.time_zone),
     timeZone: company.time_zone,
     currency: company.currency,
+    costFormula: company.cost_formula,
     cureWindow: cure?.length ? Math.max(...cure) : FALLBACK_CURE_WINDOW,
     kitchens: open.filter((k) => can(user, "dashboard.read", { kitchenId: k.id })),
   };
 }
 
+/**
+ * The one costing run of a request: every item, every kitchen of the company (transfers tie them),
+ * up to the start of the company's tomorrow. Nothing to run when the user reads no open kitchen.
+ */
+async function costsOf(s: Scope): Promise<Costs> {
+  if (!s.kitchens.length) return new Map();
+  return costCompany(db(), s.companyId, { before: dayStart(addDays(s.today, 1), s.timeZone), formula: s.costFormula });
+}
+
 // ---------------------------------------------------------------------------------------------
 // Panels
 
-async function cureExpiringIn(s: Scope): Promise<CureExpiringPanel> {
+async function cureExpiringIn(s: Scope, costing: Promise<Costs>): Promise<CureExpiringPanel> {
   if (!s.kitchens.length) return { windowDays: s.cureWindow, lots: [], caution: null };
   const rows: {
     kitchen_id: string; kitchen_code: string; kitchen_name: string; item_id: string; sku: string; item_name: string; stock_unit: StockUnit;
-    lot_id: string; lot_code: string; date: string; date_kind: DateKind; on_hand: string; value: string;
+    lot_id: string; lot_code: string; date: string; date_kind: DateKind; on_hand: string; unit_cost: string;
   }[] = await db()("stock_balances as b")
     .join("lots as l", function () {
       this.on("l.company_id", "=", "b.company_id").andOn("l.id", "=", "b.lot_id");
@@ -219,14 +252,23 @@ async function cureExpiringIn(s: Scope): Promise<CureExpiringPanel> {
     .select(
       "b.kitchen_id", "k.code as kitchen_code", "k.name as kitchen_name", "i.id as item_id", "i.sku", "i.name as item_name", "i.stock_unit",
       "l.id as lot_id", "l.code as lot_code", db().raw("to_char(l.date, 'YYYY-MM-DD') as date"), "l.date_kind",
-      db().raw("trim_scale(b.on_hand)::text as on_hand"), db().raw("(b.on_hand * l.unit_cost)::text as value"),
+      db().raw("trim_scale(b.on_hand)::text as on_hand"), db().raw("l.unit_cost::text as unit_cost"),
     );
+  const costs = await costing;
+  /** on hand x position value / position quantity (multiplied first: the unit value need not terminate) */
+  const valueOf = (r: (typeof rows)[number]) => {
+    const p = costs.get(r.item_id)?.positions.get(r.kitchen_id);
+    // the position holds what the balances hold; were it ever empty (a movement dated after the end
+    // of today), the engine's own fallback for stock it cannot place applies: the lot's cost
+    if (!p || p.quantity.lte(0)) return dec(r.on_hand).mul(dec(r.unit_cost));
+    return dec(r.on_hand).mul(p.value).div(p.quantity);
+  };
   const lots = rows.map((r): ExpiringCureLot => ({
     kitchen: { id: r.kitchen_id, code: r.kitchen_code, name: r.kitchen_name },
     item: { id: r.item_id, sku: r.sku, name: r.item_name, category: "cure", stockUnit: r.stock_unit, putUp: null },
     lot: { id: r.lot_id, code: r.lot_code },
     quantity: plain(r.on_hand),
-    value: money(r.value, s.currency),
+    value: money(valueOf(r), s.currency),
     date: r.date,
     dateKind: r.date_kind,
     daysLeft: daysBetween(s.today, r.date),
@@ -286,44 +328,45 @@ async function shortagesIn(user: CurrentUser, s: Scope): Promise<ShortagesPanel>
   return { from: s.today, to, lines, caution: lines.some((l) => l.item.category === "cure") ? CURE_CAUTION : null };
 }
 
-async function stockValueIn(s: Scope): Promise<StockValuePanel> {
-  if (!s.kitchens.length) return { kitchens: [], total: money("0", s.currency) };
-  const rows: { kitchen_id: string; value: string }[] = await db()("stock_balances as b")
-    .join("lots as l", function () {
-      this.on("l.company_id", "=", "b.company_id").andOn("l.id", "=", "b.lot_id");
-    })
-    .where("b.company_id", s.companyId)
-    .whereIn("b.kitchen_id", kitchenIds(s))
-    .groupBy("b.kitchen_id")
-    .select("b.kitchen_id", db().raw("sum(b.on_hand * l.unit_cost)::text as value"));
-  const exact = new Map(rows.map((r) => [r.kitchen_id, r.value]));
-  const kitchens = s.kitchens.map((kitchen) => ({ kitchen, value: money(exact.get(kitchen.id) ?? "0", s.currency) }));
+function stockValueIn(s: Scope, costs: Costs): StockValuePanel {
+  const e = currencyDecimals(s.currency);
+  // each item's value in the kitchen rounded once (a row of Reports > Valuation), then added
+  const byKitchen = new Map<string, Dec>();
+  for (const result of costs.values()) {
+    for (const [kitchenId, p] of result.positions) {
+      byKitchen.set(kitchenId, (byKitchen.get(kitchenId) ?? ZERO).add(p.value.toDecimalPlaces(e, Dec.ROUND_HALF_EVEN)));
+    }
+  }
+  const kitchens = s.kitchens.map((kitchen) => ({ kitchen, value: money(byKitchen.get(kitchen.id) ?? ZERO, s.currency) }));
   return { kitchens, total: sumMoney(kitchens.map((k) => k.value), s.currency) };
 }
 
-async function usageTrendIn(s: Scope): Promise<UsageTrendPanel> {
+function usageTrendIn(s: Scope, costs: Costs, categories: Map<string, ItemCategory>): UsageTrendPanel {
   const months = Array.from({ length: USAGE_MONTHS }, (_, i) => monthBefore(s.today, USAGE_MONTHS - 1 - i));
-  const after = monthBefore(s.today, -1);
-  const rows: { month: string; category: ItemCategory; value: string }[] = s.kitchens.length
-    ? await db()("stock_movements as m")
-        .join("items as i", function () {
-          this.on("i.company_id", "=", "m.company_id").andOn("i.id", "=", "m.item_id");
-        })
-        .where("m.company_id", s.companyId)
-        .whereIn("m.kitchen_id", kitchenIds(s))
-        .whereIn("m.kind", [...USAGE_KINDS])
-        // the months' bounds are the company's midnights
-        .whereRaw("m.occurred_at >= (?::date)::timestamp at time zone ?", [`${months[0]}-01`, s.timeZone])
-        .whereRaw("m.occurred_at < (?::date)::timestamp at time zone ?", [`${after}-01`, s.timeZone])
-        .groupByRaw("1, 2")
-        .select(
-          db().raw("to_char(m.occurred_at at time zone ?, 'YYYY-MM') as month", [s.timeZone]),
-          "i.category",
-          // a use or waste takes stock (delta < 0); its reversal gives it back in the same kind
-          db().raw("(-sum(m.delta * m.unit_cost))::text as value"),
-        )
-    : [];
-  const valueOf = (month: string, category: ItemCategory) => money(rows.find((r) => r.month === month && r.category === category)?.value ?? "0", s.currency);
+  // the months' bounds are the company's midnights; the run ends with today
+  const start = dayStart(`${months[0]}-01`, s.timeZone);
+  const mine = new Set(kitchenIds(s));
+  const acc = new Map<string, { used: Dec; wasted: Dec }>();
+  for (const [itemId, result] of costs) {
+    const category = categories.get(itemId);
+    if (!category) continue;
+    for (const m of result.movements) {
+      if (m.kind !== "use" && m.kind !== "waste") continue;
+      if (m.occurredAt < start || !mine.has(m.kitchenId)) continue;
+      const key = `${dateInZone(m.occurredAt, s.timeZone).slice(0, 7)}|${category}`;
+      let a = acc.get(key);
+      if (!a) acc.set(key, (a = { used: ZERO, wasted: ZERO }));
+      // an issue lowers the kitchen's value (value < 0); its reversal keeps the kind and gives it back
+      if (m.kind === "use") a.used = a.used.sub(m.value);
+      else a.wasted = a.wasted.sub(m.value);
+    }
+  }
+  const e = currencyDecimals(s.currency);
+  const valueOf = (month: string, category: ItemCategory) => {
+    const a = acc.get(`${month}|${category}`);
+    // used and wasted each rounded, then added: the usage report's cost for the row
+    return a ? money(a.used.toDecimalPlaces(e, Dec.ROUND_HALF_EVEN).add(a.wasted.toDecimalPlaces(e, Dec.ROUND_HALF_EVEN)), s.currency) : money(ZERO, s.currency);
+  };
   return {
     kinds: [...USAGE_KINDS],
     months: months.map((month) => {
@@ -333,11 +376,18 @@ async function usageTrendIn(s: Scope): Promise<UsageTrendPanel> {
   };
 }
 
+/** Each costed item's category, for the usage trend. */
+async function categoriesOf(s: Scope): Promise<Map<string, ItemCategory>> {
+  const rows: { id: string; category: ItemCategory }[] = s.kitchens.length ? await db()("items").where({ company_id: s.companyId }).select("id", "category") : [];
+  return new Map(rows.map((r) => [r.id, r.category]));
+}
+
 // ---------------------------------------------------------------------------------------------
 // Reading: one function per panel, and the whole overview at once
 
 export async function getCureExpiring(user: CurrentUser, now: Date = new Date()): Promise<CureExpiringPanel> {
-  return cureExpiringIn(await scopeOf(user, now));
+  const s = await scopeOf(user, now);
+  return cureExpiringIn(s, costsOf(s));
 }
 
 export async function getBelowReorder(user: CurrentUser, now: Date = new Date()): Promise<BelowReorderPanel> {
@@ -349,17 +399,23 @@ export async function getShortages(user: CurrentUser, now: Date = new Date()): P
 }
 
 export async function getStockValue(user: CurrentUser, now: Date = new Date()): Promise<StockValuePanel> {
-  return stockValueIn(await scopeOf(user, now));
+  const s = await scopeOf(user, now);
+  return stockValueIn(s, await costsOf(s));
 }
 
 export async function getUsageTrend(user: CurrentUser, now: Date = new Date()): Promise<UsageTrendPanel> {
-  return usageTrendIn(await scopeOf(user, now));
+  const s = await scopeOf(user, now);
+  const [costs, categories] = await Promise.all([costsOf(s), categoriesOf(s)]);
+  return usageTrendIn(s, costs, categories);
 }
 
+/** Every panel, with the money of all three money panels from one costing run. */
 export async function getDashboard(user: CurrentUser, now: Date = new Date()): Promise<Dashboard> {
   const s = await scopeOf(user, now);
-  const [cureExpiring, belowReorder, shortages, stockValue, usageTrend] = await Promise.all([
-    cureExpiringIn(s), belowReorderIn(s), shortagesIn(user, s), stockValueIn(s), usageTrendIn(s),
-  ]);
-  return { today: s.today, currency: s.currency, costBasis: "receipt", kitchens: s.kitchens, cureExpiring, belowReorder, shortages, stockValue, usageTrend };
+  const costing = costsOf(s);
+  const [costs, categories, cureExpiring, belowReorder, shortages] = await Promise.all([costing, categoriesOf(s), cureExpiringIn(s, costing), belowReorderIn(s), shortagesIn(user, s)]);
+  return {
+    today: s.today, currency: s.currency, costFormula: s.costFormula, kitchens: s.kitchens,
+    cureExpiring, belowReorder, shortages, stockValue: stockValueIn(s, costs), usageTrend: usageTrendIn(s, costs, categories),
+  };
 }

@@ -1,5 +1,6 @@
 // The Overview's answer (GET /api/dashboard): the shapes of lib/data/dashboard.ts, for the OpenAPI
 // document (a drift fails `tsc` in lib/http/openapi.ts). Client-safe. The route takes no query.
+// Money follows the company's cost formula (FIFO cost or moving average cost; `costFormula`).
 import { z } from "zod";
 import { DATE_KINDS, ITEM_CATEGORIES, STOCK_UNITS } from "../../db/types";
 
@@ -8,7 +9,7 @@ const isoDate = (description: string, example = "2026-12-09") => z.string().meta
 const decimal = (description: string, example?: string) =>
   z.string().meta({ description: `${description} A decimal string.`, ...(example ? { example } : {}) });
 const money = (description: string, example = "1250.40") =>
-  decimal(`${description} At receipt cost (each lot's unit cost when it was received; no cost formula yet), in the company's currency, rounded half-even to its decimals.`, example);
+  decimal(`${description} By the company's cost formula (costFormula: FIFO cost or moving average cost, kept per kitchen), in the company's currency, rounded half-even to its decimals.`, example);
 const quantity = (description: string, example?: string) => decimal(`${description} In the item's stock unit.`, example);
 
 const kitchen = z.object({ id, code: z.string(), name: z.string() }).meta({ id: "DashboardKitchen" });
@@ -29,7 +30,7 @@ export const cureExpiringPanel = z
         item,
         lot: z.object({ id, code: z.string() }),
         quantity: quantity("On hand in the kitchen.", "2500"),
-        value: money("On hand x the lot's unit cost.", "16.00"),
+        value: money("On hand x the kitchen's unit value of the item under the cost formula (the item's value in the kitchen / its quantity there, as Reports > Valuation has them for today), rounded once.", "16.00"),
         date: isoDate("The lot's date."),
         dateKind: z.enum(DATE_KINDS),
         daysLeft: z.number().int().meta({ description: "The date less the company's today, in calendar days: 0 on the day, negative once past it." }),
@@ -84,7 +85,7 @@ export const shortagesPanel = z
 
 export const stockValuePanel = z
   .object({
-    kitchens: z.array(z.object({ kitchen, value: money("The sum over the kitchen's lots of on hand x unit cost, exact, rounded once.") })),
+    kitchens: z.array(z.object({ kitchen, value: money("The kitchen's stock at the end of today: each item's value in the kitchen rounded once, then added; the kitchen's total in GET /api/reports/valuation for today.") })),
     total: money("The sum of the kitchens' values as shown (so the column adds up)."),
   })
   .meta({ id: "DashboardStockValue" });
@@ -96,10 +97,10 @@ export const usageTrendPanel = z
     months: z.array(
       z.object({
         month: z.string().meta({ description: "yyyy-mm in the company's time zone.", example: "2026-11" }),
-        cure: perCategory("Cure used or wasted."),
-        casing: perCategory("Casings used or wasted."),
-        spice: perCategory("Spices used or wasted."),
-        ingredient: perCategory("Other ingredients used or wasted."),
+        cure: perCategory("Cure used or wasted (used and wasted each rounded, then added: the cost of GET /api/reports/usage?groupBy=category for the month)."),
+        casing: perCategory("Casings used or wasted (as cure)."),
+        spice: perCategory("Spices used or wasted (as cure)."),
+        ingredient: perCategory("Other ingredients used or wasted (as cure)."),
         total: perCategory("The four above added."),
       }),
     ).meta({ description: "The last six months, oldest first, this month (so far) last." }),
@@ -110,7 +111,7 @@ export const dashboardResponse = z
   .object({
     today: isoDate("The company's date."),
     currency: z.string().meta({ description: "The company's currency (ISO 4217).", example: "GBP" }),
-    costBasis: z.literal("receipt").meta({ description: "Money is at receipt cost: each lot at the unit cost it was received with. A costing formula (average or FIFO) is not there yet." }),
+    costFormula: z.enum(["fifo", "average"]).meta({ description: "The company's cost formula (Settings > Company), which every money figure here follows: fifo, FIFO cost (cost layers in receipt order, per kitchen), or average, moving average cost (per kitchen). The same costing as the reports." }),
     kitchens: z.array(kitchen).meta({ description: "The open kitchens the panels cover: every one for most roles, their own for kitchen leads." }),
     cureExpiring: cureExpiringPanel,
     belowReorder: belowReorderPanel,

@@ -24,12 +24,14 @@ const manager = demo.users.find((u) => u.role === "manager")!;
 interface CureLot { code: string; kitchen: string; daysLeft: number }
 let soon: CureLot;
 let expired: CureLot | undefined;
+/** the demo company's cost formula in the page's words */
+let costWords: string;
 
-async function demoCompany(): Promise<{ id: string } | undefined> {
+async function demoCompany(): Promise<{ id: string; cost_formula: "fifo" | "average" } | undefined> {
   return db()("companies as c")
     .where("c.name", demo.name)
     .whereExists(db()("app_users as u").whereRaw("u.company_id = c.id").where("u.email", manager.email))
-    .first("c.id");
+    .first("c.id", "c.cost_formula");
 }
 
 /** The demo company, kitchens and users as load-demo.ts writes them (only when they are not there). */
@@ -77,6 +79,7 @@ test.beforeAll(async () => {
   }
   const company = await demoCompany();
   expect(company, "the demo company is loaded").toBeTruthy();
+  costWords = company!.cost_formula === "fifo" ? "FIFO cost" : "moving average cost";
   const lots = await cureLots(company!.id);
   // the demo has cure within 60 days of today (the default cure warning window) and one past its date
   soon = lots.find((l) => l.daysLeft > 0 && l.daysLeft <= 60)!;
@@ -103,8 +106,10 @@ test("the manager signs in and sees cure expiring soon on the Overview", async (
   if (expired) {
     await expect(cure.getByRole("row").filter({ hasText: `lot ${expired.code}` }).first()).toContainText(`Expired ${daysText(-expired.daysLeft)} ago`);
   }
-  // every money heading says what the money is
-  await expect(cure.getByRole("columnheader", { name: /Value.*at receipt cost/ })).toBeVisible();
+  // the page and every money heading name the company's cost formula
+  await expect(page.getByText(`Money here is at ${costWords}, the company’s cost formula`)).toBeVisible();
+  await expect(cure.getByRole("columnheader", { name: new RegExp(`^Value\\s*at ${costWords}$`) })).toBeVisible();
+  await expect(page.getByRole("region", { name: "Stock value by kitchen" }).getByRole("columnheader", { name: new RegExp(`^Value\\s*at ${costWords}$`) })).toBeVisible();
   await expect(page.getByRole("region", { name: "Stock value by kitchen" }).getByRole("row", { name: /^Total/ })).toBeVisible();
   for (const k of demo.kitchens) await expect(page.getByRole("region", { name: "Stock value by kitchen" })).toContainText(k.name);
   await expect(page.getByRole("region", { name: "Next week's shortages" })).toBeVisible();

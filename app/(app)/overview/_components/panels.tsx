@@ -1,16 +1,18 @@
 // The Overview's panels (server components: tables and words only; the chart is the one client
 // leaf). Each panel is a section with its heading, a link to where the work is done, a table, and
 // an empty state that says what would bring something here. Money is shown exactly as sent, with
-// "at receipt cost" by every money heading.
+// the company's cost formula in words ("at FIFO cost", "at moving average cost") by every money heading.
 import Link from "next/link";
 import { ArrowRight, CalendarCheck2, CheckCircle2, Clock, PackageCheck, ShieldCheck, TriangleAlert, Wallet } from "lucide-react";
 import type { ReactNode } from "react";
 import { CureCaution } from "@/components/cure/cure-caution";
 import { CureMarker } from "@/components/cure/cure-marker";
 import { amountText, stockText } from "@/components/purchasing/order-format";
+import { FORMULA_WORDS } from "@/components/reports/report-parts";
 import { DATE_KIND_WORDS, expiryBand } from "@/components/stock/stock-rows";
 import { Badge } from "@/components/ui/badge";
 import { DataTable, RowHeader, TBody, Td, Th, THead } from "@/components/ui/data-table";
+import type { CostFormula } from "@/lib/costing/engine";
 import type {
   BelowReorderPanel as BelowReorder, CureExpiringPanel as CureExpiring, ShortagesPanel as Shortages, StockValuePanel as StockValue,
   UsageTrendPanel as UsageTrend,
@@ -24,9 +26,12 @@ const dayText = (iso: string) => dayFormat.format(new Date(`${iso}T00:00:00Z`));
 const dateText = (iso: string) => dateFormat.format(new Date(`${iso}T00:00:00Z`));
 const days = (n: number) => (n === 1 ? "1 day" : `${n} days`);
 
-/** The small note by every money heading until costing lands. */
-export function AtReceiptCost() {
-  return <span className="block text-xs font-normal text-brine">at receipt cost</span>;
+/** The company's cost formula as the money notes say it: "FIFO cost", "moving average cost". */
+export const costWords = (formula: CostFormula) => `${FORMULA_WORDS[formula]} cost`;
+
+/** The small note by every money heading. */
+export function AtCost({ formula }: { formula: CostFormula }) {
+  return <span className="block text-xs font-normal text-brine">at {costWords(formula)}</span>;
 }
 
 function Panel({ id, title, note, action, children }: { id: string; title: string; note?: ReactNode; action?: ReactNode; children: ReactNode }) {
@@ -72,7 +77,7 @@ function DaysLeft({ n }: { n: number }) {
 
 // ---------------------------------------------------------------------------------------------
 
-export function CureExpiringPanel({ panel, currency, unitSystem }: { panel: CureExpiring; currency: string; unitSystem: UnitSystem }) {
+export function CureExpiringPanel({ panel, currency, formula, unitSystem }: { panel: CureExpiring; currency: string; formula: CostFormula; unitSystem: UnitSystem }) {
   const expired = panel.lots.filter((l) => l.daysLeft < 0).length;
   return (
     <Panel
@@ -99,7 +104,7 @@ export function CureExpiringPanel({ panel, currency, unitSystem }: { panel: Cure
               <Th>Item and lot</Th>
               <Th>Kitchen</Th>
               <Th numeric>On hand</Th>
-              <Th numeric>Value<AtReceiptCost /></Th>
+              <Th numeric>Value<AtCost formula={formula} /></Th>
               <Th>Date</Th>
               <Th>Days left</Th>
             </THead>
@@ -256,19 +261,19 @@ export function BelowReorderPanel({ panel, unitSystem, canOpenReorder }: { panel
   );
 }
 
-export function StockValuePanel({ panel, currency }: { panel: StockValue; currency: string }) {
+export function StockValuePanel({ panel, currency, formula }: { panel: StockValue; currency: string; formula: CostFormula }) {
   return (
-    <Panel id="stock-value" title="Stock value by kitchen" note="On hand x each lot's unit cost, at receipt cost.">
+    <Panel id="stock-value" title="Stock value by kitchen" note={`What is on hand today, at ${costWords(formula)}, as Reports › Valuation values it.`}>
       {panel.kitchens.length === 0 ? (
         <Empty icon={<Wallet />}>
           <p className="font-semibold text-pepper">No open kitchen to value.</p>
           <p>An admin opens kitchens under Settings › Kitchens.</p>
         </Empty>
       ) : (
-        <DataTable caption="Stock value by kitchen, at receipt cost">
+        <DataTable caption={`Stock value by kitchen, at ${costWords(formula)}`}>
           <THead>
             <Th>Kitchen</Th>
-            <Th numeric>Value<AtReceiptCost /></Th>
+            <Th numeric>Value<AtCost formula={formula} /></Th>
           </THead>
           <TBody>
             {panel.kitchens.map((k) => (
@@ -294,10 +299,10 @@ const CATEGORY_WORDS = { cure: "Cure", casing: "Casings", spice: "Spices", ingre
 const monthFormat = new Intl.DateTimeFormat("en-GB", { timeZone: "UTC", month: "short", year: "numeric" });
 const monthText = (ym: string) => monthFormat.format(new Date(`${ym}-01T00:00:00Z`));
 
-export function UsagePanel({ panel, currency }: { panel: UsageTrend; currency: string }) {
+export function UsagePanel({ panel, currency, formula }: { panel: UsageTrend; currency: string; formula: CostFormula }) {
   const any = panel.months.some((m) => !dec(m.total).isZero());
   return (
-    <Panel id="usage" title="Usage by month" note="Stock used in production or by hand, and wasted, over the last six months, at receipt cost.">
+    <Panel id="usage" title="Usage by month" note={`Stock used in production or by hand, and wasted, over the last six months, at ${costWords(formula)}.`}>
       {!any ? (
         <Empty icon={<Wallet />}>
           <p className="font-semibold text-pepper">Nothing used or wasted in the last six months.</p>
@@ -306,25 +311,25 @@ export function UsagePanel({ panel, currency }: { panel: UsageTrend; currency: s
       ) : (
         <div className="panel space-y-2 p-4">
           <UsageChart months={panel.months} currency={currency} labels={CATEGORY_WORDS} />
-          <UsageTable panel={panel} currency={currency} />
+          <UsageTable panel={panel} currency={currency} formula={formula} />
         </div>
       )}
     </Panel>
   );
 }
 
-function UsageTable({ panel, currency }: { panel: UsageTrend; currency: string }) {
+function UsageTable({ panel, currency, formula }: { panel: UsageTrend; currency: string; formula: CostFormula }) {
   return (
     <div className="overflow-x-auto">
       <table className="w-full border-collapse text-left text-sm">
-        <caption className="sr-only">Usage by month and category, at receipt cost</caption>
+        <caption className="sr-only">Usage by month and category, at {costWords(formula)}</caption>
         <thead className="border-b border-salt-edge text-brine">
           <tr>
             <th scope="col" className="px-2 py-2 font-semibold">Month</th>
             {(Object.keys(CATEGORY_WORDS) as (keyof typeof CATEGORY_WORDS)[]).map((c) => (
               <th key={c} scope="col" className="px-2 py-2 text-right font-semibold">{CATEGORY_WORDS[c]}</th>
             ))}
-            <th scope="col" className="px-2 py-2 text-right font-semibold">Total<AtReceiptCost /></th>
+            <th scope="col" className="px-2 py-2 text-right font-semibold">Total<AtCost formula={formula} /></th>
           </tr>
         </thead>
         <tbody className="divide-y divide-salt-edge">

@@ -73,7 +73,7 @@ export function CompanyForm({ company, zones }: { company: Omit<Company, "id">; 
         />
       </fieldset>
       <fieldset className="flex flex-col gap-3" {...describedBy("costFormula", state.fieldErrors?.costFormula)}>
-        <legend className="field-label">Cost formula of the reports</legend>
+        <legend className="field-label">Cost formula of the reports and the Overview</legend>
         <div className="flex flex-wrap gap-3">
           {COST_FORMULAS.map((f) => (
             <label
