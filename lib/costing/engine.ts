@@ -84,14 +84,19 @@ interface KitchenState {
 type Slices = { quantity: Dec; unitCost: Dec; value?: Dec }[];
 
 export function sortForCosting<T extends Pick<CostInput, "id" | "postingId" | "delta" | "occurredAt" | "recordedAt">>(movements: readonly T[]): T[] {
-  return [...movements].sort(
+  // the keys once per movement, not per comparison (a ledger has hundreds of thousands)
+  const keyed = movements.map((m) => ({
+    m, at: m.occurredAt.getTime(), rec: m.recordedAt.getTime(), sign: m.delta.startsWith("-") ? -1 : /^0*(\.0*)?$/.test(m.delta) ? 0 : 1,
+  }));
+  keyed.sort(
     (a, b) =>
-      a.occurredAt.getTime() - b.occurredAt.getTime() ||
-      a.recordedAt.getTime() - b.recordedAt.getTime() ||
-      (a.postingId < b.postingId ? -1 : a.postingId > b.postingId ? 1 : 0) ||
-      Math.sign(dec(a.delta).cmp(0)) - Math.sign(dec(b.delta).cmp(0)) ||
-      (a.id < b.id ? -1 : a.id > b.id ? 1 : 0),
+      a.at - b.at ||
+      a.rec - b.rec ||
+      (a.m.postingId < b.m.postingId ? -1 : a.m.postingId > b.m.postingId ? 1 : 0) ||
+      a.sign - b.sign ||
+      (a.m.id < b.m.id ? -1 : a.m.id > b.m.id ? 1 : 0),
   );
+  return keyed.map((k) => k.m);
 }
 
 const sumSlices = (s: Slices) => s.reduce((v, x) => v.add(x.value ?? x.quantity.mul(x.unitCost)), ZERO);
