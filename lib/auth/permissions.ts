@@ -35,7 +35,7 @@ export type Action =
   | "reports.read"
   | "reports.export"
   | "accounts.manage" // the account mapping of the movement journal
-  // alerts from the scans in jobs/ (expiry now; reorder and shortage later)
+  // alerts from the scans in jobs/ (expiry, reorder, shortage)
   | "alerts.read"
   // the Overview page and GET /api/dashboard (kitchen leads: their own kitchens only)
   | "dashboard.read";

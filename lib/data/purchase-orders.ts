@@ -1,6 +1,6 @@
 // Purchase orders: a draft for one supplier and one delivery kitchen, approved (a buyer up to the
 // company's approval threshold, a manager or admin above it), sent to the supplier by e-mail with
-// the order as PDF and CSV, then received (lib/data deliveries, later), closed short or cancelled.
+// the order as PDF and CSV, then received (lib/data/deliveries.ts), closed short or cancelled.
 // The step rules are lib/purchasing/order-status.ts; the money lib/purchasing/order-money.ts (the
 // server computes every total; clients never send one).
 //

@@ -471,7 +471,7 @@ export const TAGS = [
   { name: "Invitations", description: "Single-use e-mailed links that create accounts." },
   { name: "Mail catcher", description: "Local development only: e-mail caught instead of sent." },
   { name: "Dashboard", description: "The Overview: cure expiring soon, items below their reorder point, next week's shortages, stock value by kitchen and the usage trend, over the kitchens you may read. Money by the company's cost formula (FIFO cost or moving average cost)." },
-  { name: "Alerts", description: "What the daily scans found (lots near their date; later reorder and shortage), per kitchen, with each user's acknowledgements and snoozes." },
+  { name: "Alerts", description: "What the daily scans found (lots near their date, items below their reorder point, batches short of stock), per kitchen, with each user's acknowledgements and snoozes." },
   { name: "Reports", description: "The accountant's reports: usage and cost by month, stock valuation at a date (by the company's cost formula, FIFO or moving average, per kitchen), price variance, the movement journal with account codes from the accountant's mapping; JSON or CSV." },
   { name: "Jobs", description: "The background jobs behind alerts and e-mail (admins): queue counts, your company's failed jobs, each scan's last and next run, running a scan now." },
   { name: "Periods", description: "Closing months (calendar months in the company's time zone): once a month is closed, stock movements dated in it are refused (409 PERIOD_CLOSED) and corrections go into the open months. Months close in order; only admins reopen, with a reason; every close and reopen is on the audit trail." },

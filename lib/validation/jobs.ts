@@ -6,7 +6,7 @@ const timestamp = z.string().meta({ description: "ISO 8601 timestamp in UTC." })
 
 export const queueCountsResponse = z
   .object({
-    name: z.string().meta({ description: "The queue: mail, housekeeping, scans (and any added later)." }),
+    name: z.string().meta({ description: "The queue: mail, housekeeping, scans or digests." }),
     waiting: z.number().int(),
     active: z.number().int(),
     delayed: z.number().int().meta({ description: "Waiting for their time, including retries waiting out their backoff." }),

@@ -69,7 +69,8 @@ export function AlertList({ alerts, unreadCount, timeZone, links }: {
           const link = actionLink(a, links);
           return (
             <li key={a.id} className={`panel flex flex-wrap items-start justify-between gap-3 px-4 py-3 ${a.unread ? "" : "opacity-75"}`}>
-              <div className="min-w-0">
+              {/* the text takes the room left of the buttons and wraps inside it, so long details keep the buttons beside it */}
+              <div className="min-w-0 flex-1 basis-64">
                 <p className="font-semibold">{a.title}</p>
                 <p className="text-sm text-brine">{a.detail}</p>
                 {link ? (
@@ -90,7 +91,7 @@ export function AlertList({ alerts, unreadCount, timeZone, links }: {
                 </p>
               </div>
               {a.acknowledgedAt || a.clearedAt ? null : (
-                <div className="flex gap-2">
+                <div className="flex shrink-0 gap-2">
                   <button type="button" className="btn-quiet" disabled={busy !== null} onClick={() => void act(a, "snooze")}>
                     {busy === `${a.id}:snooze` ? <Loader2 aria-hidden className="h-4 w-4 animate-spin" /> : <Clock aria-hidden className="h-4 w-4" />}
                     Remind me tomorrow
