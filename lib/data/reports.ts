@@ -100,11 +100,24 @@ export async function loadContext(user: CurrentUser, kitchenRef: string | undefi
 const byCategoryThenSku = (a: ItemRef, b: ItemRef) => (a.category < b.category ? -1 : a.category > b.category ? 1 : a.sku < b.sku ? -1 : a.sku > b.sku ? 1 : 0);
 
 export async function usageReport(user: CurrentUser, q: UsageQuery): Promise<UsageReport> {
-  const { company, kitchens, kitchen, items } = await loadContext(user, q.kitchen);
+  return (await usageReports(user, q, [q.groupBy]))[0]!;
+}
+
+/** The same months and kitchen grouped several ways, from ONE costing run (the usage page's table and chart). */
+export async function usageReports(user: CurrentUser, q: UsageQuery, groupings: readonly UsageGroup[]): Promise<UsageReport[]> {
+  const context = await loadContext(user, q.kitchen);
+  const end = dayStart(`${addMonths(q.to, 1)}-01`, context.company.time_zone);
+  const costs = await costCompany(db(), user.companyId, { before: end, formula: context.company.cost_formula });
+  return groupings.map((groupBy) => buildUsage(context, costs, { ...q, groupBy }));
+}
+
+function buildUsage(
+  { company, kitchens, kitchen, items }: Awaited<ReturnType<typeof loadContext>>,
+  costs: Awaited<ReturnType<typeof costCompany>>,
+  q: UsageQuery,
+): UsageReport {
   const tz = company.time_zone;
   const start = dayStart(`${q.from}-01`, tz);
-  const end = dayStart(`${addMonths(q.to, 1)}-01`, tz);
-  const costs = await costCompany(db(), user.companyId, { before: end, formula: company.cost_formula });
 
   interface Acc { month: string; key: string; used: Dec; wasted: Dec; usedCost: Dec; wastedCost: Dec; countQty: Dec; countCost: Dec }
   const acc = new Map<string, Acc>();

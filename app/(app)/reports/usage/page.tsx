@@ -21,7 +21,7 @@ import { can } from "@/lib/auth/permissions";
 import { requireUser } from "@/lib/auth/session";
 import { getCompany } from "@/lib/data/companies";
 import { listKitchens } from "@/lib/data/kitchens";
-import { usageReport, type UsageReport, type UsageRow } from "@/lib/data/reports";
+import { usageReports, type UsageReport, type UsageRow } from "@/lib/data/reports";
 import { monthLabel, monthsBetween } from "@/lib/periods/months";
 import { previousMonth, rangeWords } from "@/lib/reports/months";
 import { currencyExponent, dec, ZERO } from "@/lib/units";
@@ -58,12 +58,8 @@ export default async function UsagePage({ searchParams }: { searchParams: Promis
     for (const [k, v] of Object.entries(extra)) q.set(k, v);
     return q.toString();
   };
-  const [report, byCategory] = ok
-    ? await Promise.all([
-        usageReport(user, parsed.data),
-        groupBy === "category" ? null : usageReport(user, { ...parsed.data, groupBy: "category" }),
-      ])
-    : [null, null];
+  // the table's grouping and, for the chart, by category: one costing run for both
+  const [report, byCategory] = ok ? await usageReports(user, parsed.data, [groupBy, "category"]) : [null, null];
   const categories = groupBy === "category" ? report : byCategory;
   const exports: ExportLink[] = ok && can(user, "reports.export")
     ? [
