@@ -57,6 +57,8 @@ export interface CostedMovement {
   /** signed change of the kitchen's inventory value (an issue is negative) */
   value: Dec;
   basis: CostBasis;
+  /** the movement as given (posting, lot, lot cost, reversal, times): callers need not read it again */
+  source: CostInput;
 }
 
 export interface Layer {
@@ -228,7 +230,7 @@ export function costMovements(input: readonly CostInput[], formula: CostFormula)
       basis = reversing ? "reversal" : "formula";
       if (m.kind === "transfer") inTransit.set(`${m.postingId}:${m.lotId}`, slices);
     }
-    const c: CostedMovement = { id: m.id, kind: m.kind, kitchenId: m.kitchenId, occurredAt: m.occurredAt, delta, value, basis };
+    const c: CostedMovement = { id: m.id, kind: m.kind, kitchenId: m.kitchenId, occurredAt: m.occurredAt, delta, value, basis, source: m };
     costed.set(m.id, c);
     out.push(c);
   }

@@ -95,18 +95,27 @@ export async function journal(user: CurrentUser, q: JournalQuery): Promise<Journ
   const tz = company.time_zone;
   const start = dayStart(`${q.from}-01`, tz);
   const end = dayStart(`${addMonths(q.to, 1)}-01`, tz);
-  const [costs, mapping, rows] = await Promise.all([
+  const [costs, mapping] = await Promise.all([
     costCompany(db(), user.companyId, { before: end, formula: company.cost_formula }),
     loadAccountMapping(db(), user.companyId),
-    db()("stock_movements")
-      .where("company_id", user.companyId)
-      .where("occurred_at", ">=", start)
-      .where("occurred_at", "<", end)
-      .select<MovementRow[]>("id", "posting_id", "kind", "kitchen_id", "item_id", "lot_id", "delta", "unit_cost", "reverses_id", "occurred_at", "recorded_at")
-      .orderBy([{ column: "occurred_at" }, { column: "recorded_at" }, { column: "posting_id" }, { column: "id" }]),
   ]);
+  // the range's movements as the costing run read them (no second read), in ledger order
   const value = new Map<string, Dec>();
-  for (const result of costs.values()) for (const m of result.movements) if (m.occurredAt >= start) value.set(m.id, m.value);
+  const rows: MovementRow[] = [];
+  for (const [itemId, result] of costs) {
+    for (const m of result.movements) {
+      if (m.occurredAt < start) continue;
+      value.set(m.id, m.value);
+      const src = m.source;
+      rows.push({
+        id: m.id, posting_id: src.postingId, kind: m.kind, kitchen_id: m.kitchenId, item_id: itemId, lot_id: src.lotId, delta: src.delta,
+        unit_cost: src.lotCost, reverses_id: src.reversesId, occurred_at: src.occurredAt, recorded_at: src.recordedAt,
+      });
+    }
+  }
+  const order = (a: string, b: string) => (a < b ? -1 : a > b ? 1 : 0);
+  rows.sort((a, b) =>
+    a.occurred_at.getTime() - b.occurred_at.getTime() || a.recorded_at.getTime() - b.recorded_at.getTime() || order(a.posting_id, b.posting_id) || order(a.id, b.id));
 
   const places = currencyExponent(company.currency);
   const round = (v: Dec) => v.toDecimalPlaces(places, Dec.ROUND_HALF_EVEN);
